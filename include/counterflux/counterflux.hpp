@@ -1,0 +1,17 @@
+// counterflux/counterflux.hpp - umbrella header: the whole firmware library.
+// Every header also works on its own.
+#ifndef COUNTERFLUX_COUNTERFLUX_HPP
+#define COUNTERFLUX_COUNTERFLUX_HPP
+
+#include "ambient.hpp"
+#include "barrier.hpp"
+#include "constants.hpp"
+#include "diffusivity.hpp"
+#include "flux.hpp"
+#include "gases.hpp"
+#include "series.hpp"
+#include "signal.hpp"
+#include "status.hpp"
+#include "units.hpp"
+
+#endif  // COUNTERFLUX_COUNTERFLUX_HPP

@@ -1,0 +1,50 @@
+// counterflux/detail/math.hpp - small numeric helpers shared by the headers.
+// Internal: include the public headers instead.
+#ifndef COUNTERFLUX_DETAIL_MATH_HPP
+#define COUNTERFLUX_DETAIL_MATH_HPP
+
+#include <cmath>
+#include <limits>
+
+namespace counterflux {
+namespace detail {
+
+/// True when x is neither NaN nor infinite.
+template <class T>
+constexpr bool finite(T x) noexcept {
+    return x == x && x - x == T(0);  // NaN fails the first test, +-inf the second
+}
+
+/// log1p(x)/x, continuous at x = 0 (value 1); for x > -1.
+template <class T>
+inline T log1p_over_x(T x) noexcept {
+    // Below 1e-5 the truncated series is exact to double rounding (next term x^3/4).
+    if (std::fabs(x) < T(1.0e-5)) return T(1) - x * (T(0.5) - x * (T(1) / T(3)));
+    return std::log1p(x) / x;
+}
+
+/// expm1(x)/x, continuous at x = 0 (value 1).
+template <class T>
+inline T expm1_over_x(T x) noexcept {
+    if (std::fabs(x) < T(1.0e-5)) return T(1) + x * (T(0.5) + x * (T(1) / T(6)));
+    return std::expm1(x) / x;
+}
+
+/// x limited to [lo, hi].
+template <class T>
+constexpr T clamp(T x, T lo, T hi) noexcept {
+    return x < lo ? lo : (hi < x ? hi : x);
+}
+
+/// Largest argument passed to exp before a result is flagged (exp(80) ~ 5.5e34 fits float).
+template <class T>
+constexpr T max_exponent() noexcept { return T(80); }
+
+/// Largest finite value of T.
+template <class T>
+constexpr T max_finite() noexcept { return std::numeric_limits<T>::max(); }
+
+}  // namespace detail
+}  // namespace counterflux
+
+#endif  // COUNTERFLUX_DETAIL_MATH_HPP

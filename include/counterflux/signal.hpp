@@ -1,0 +1,254 @@
+// counterflux/signal.hpp - from flux to signal: limiting current,
+// sensitivity, inversion and the span factor of a diffusion-limited sensor.
+//
+// Amperometric limiting-current cell: the electrode is a perfect sink (y = 0
+// there) and I = n F F_A, with F_A the molar flow of A (mol/s) through the
+// barrier series and n the electrons per molecule (O2: 4, CO: 2, H2S to
+// sulfate: 8, NO2: 2). Sensitivity S = dI/dy at y -> 0, where every element is
+// linear: S = n F / sum_i L_i (r_m,i + r_l,i) / (c A_i). The span factor
+// s(T, P) = S(T, P) / S(T_ref, P_ref) always comes from the full model; for a
+// reading reported as partial pressure it is multiplied by P_ref / P.
+// (Physics notes sec. 4 and 5.)
+#ifndef COUNTERFLUX_SIGNAL_HPP
+#define COUNTERFLUX_SIGNAL_HPP
+
+#include <array>
+#include <cmath>
+#include <cstddef>
+#include <cstdint>
+#include <limits>
+
+#include "barrier.hpp"
+#include "constants.hpp"
+#include "detail/math.hpp"
+#include "diffusivity.hpp"
+#include "flux.hpp"
+#include "gases.hpp"
+#include "series.hpp"
+#include "status.hpp"
+
+namespace counterflux {
+
+/// What the sensor reports.
+enum class reading_kind : std::uint8_t {
+    mole_fraction,     ///< mol/mol
+    partial_pressure,  ///< Pa
+};
+
+/// A whole sensor design: gases, diffusivity model, barrier series, electrode
+/// reaction and reference (calibration) condition.
+template <class T, std::size_t N>
+struct sensor_model {
+    const gas_data* target;              ///< gas A consumed at the electrode
+    const gas_data* background;          ///< gas B
+    diffusivity_model<T> diffusivity;    ///< how D_AB is obtained
+    series<T, N> barriers;               ///< elements from the outside in
+    unsigned electrons;                  ///< n in I = n F N
+    T flux_ratio;                        ///< N_B / N_A: -1 equimolar, 0 stagnant
+    reading_kind reading;                ///< mole fraction or partial pressure
+    T reference_temperature_K;           ///< calibration temperature, K
+    T reference_pressure_Pa;             ///< calibration pressure, Pa
+};
+
+/// status::ok when the model is complete and physical: known, distinct gases,
+/// electrons >= 1, 1..N valid elements, finite flux ratio, valid reference.
+template <class T, std::size_t N>
+constexpr status validate(const sensor_model<T, N>& m) noexcept {
+    if (m.target == nullptr || m.background == nullptr) return status::unknown_gas;
+    if (m.target == m.background) return status::out_of_domain;
+    if (m.electrons < 1u || m.barriers.count < 1 || m.barriers.count > N) return status::out_of_domain;
+    if (!detail::finite(m.flux_ratio)) return status::not_finite;
+    status s = detail::check_condition(m.reference_temperature_K, m.reference_pressure_Pa);
+    for (std::size_t i = 0; i < m.barriers.count; ++i) s |= validate(m.barriers.elements[i]);
+    return s;
+}
+
+/// The model's barrier series resolved at (T, P).
+template <class T, std::size_t N>
+inline result<series_transport<T, N>> transport_at(const sensor_model<T, N>& m, T temperature_K,
+                                                   T pressure_Pa) noexcept {
+    series_transport<T, N> st{};
+    st.count = 0;
+    st.total_concentration_mol_m3 = T(1);
+    st.alpha = T(0);
+    status s = validate(m);
+    s |= detail::check_condition(temperature_K, pressure_Pa);
+    if (s != status::ok) return {st, s};
+    const result<T> d = evaluate(m.diffusivity, temperature_K, pressure_Pa);
+    const result<T> lambda = mean_free_path(kinetic_diameter_m<T>(*m.background), temperature_K, pressure_Pa);
+    s |= d.code;
+    s |= lambda.code;
+    if (has(s, status::not_finite) || !(d.value > T(0)) || !(lambda.value > T(0))) return {st, s};
+    const gas_environment<T> env{temperature_K, pressure_Pa, d.value, molar_mass_kg_mol<T>(*m.target),
+                                 lambda.value};
+    st.total_concentration_mol_m3 = pressure_Pa / (gas_constant_J_mol_K<T> * temperature_K);
+    st.alpha = alpha_from_flux_ratio(m.flux_ratio);
+    st.count = m.barriers.count;
+    for (std::size_t i = 0; i < st.count; ++i) {
+        const result<element_transport<T>> e = resolve(m.barriers.elements[i], env);
+        st.elements[i] = e.value;
+        s |= e.code;
+    }
+    return {st, s};
+}
+
+namespace detail {
+
+/// y limited to [0, 1]; below_range / above_range added to s when it was outside.
+template <class T>
+constexpr T clamp_fraction(T y, status& s) noexcept {
+    if (y < T(0)) { s |= status::below_range; return T(0); }
+    if (y > T(1)) { s |= status::above_range; return T(1); }
+    return y;
+}
+
+}  // namespace detail
+
+/// Sensitivity S = dI/dy at y -> 0 at (T, P), in A per mol/mol.
+template <class T, std::size_t N>
+inline result<T> sensitivity_A_per_mol_per_mol(const sensor_model<T, N>& m, T temperature_K, T pressure_Pa) noexcept {
+    const result<series_transport<T, N>> st = transport_at(m, temperature_K, pressure_Pa);
+    if (st.value.count == 0) return {T(0), st.code};
+    return {static_cast<T>(m.electrons) * faraday_C_mol<T> / dilute_resistance_s_per_mol(st.value), st.code};
+}
+
+/// Limiting current at mole fraction y outside the barrier and (T, P), in A.
+/// y is clamped to [0, 1] (below_range / above_range).
+template <class T, std::size_t N>
+inline result<T> limiting_current_A(const sensor_model<T, N>& m, T temperature_K, T pressure_Pa,
+                                    T mole_fraction) noexcept {
+    if (!detail::finite(mole_fraction)) return {T(0), status::not_finite};
+    status s = status::ok;
+    const T y = detail::clamp_fraction(mole_fraction, s);
+    const result<series_transport<T, N>> st = transport_at(m, temperature_K, pressure_Pa);
+    s |= st.code;
+    if (st.value.count == 0) return {T(0), s};
+    const result<T> f = molar_flow(st.value, y);
+    return {static_cast<T>(m.electrons) * faraday_C_mol<T> * f.value, s | f.code};
+}
+
+/// Mole fraction outside the barrier that gives limiting current I at (T, P):
+/// the inverse of limiting_current_A, closed form. Clamped to [0, 1] with
+/// below_range / above_range.
+template <class T, std::size_t N>
+inline result<T> mole_fraction_from_current(const sensor_model<T, N>& m, T temperature_K, T pressure_Pa,
+                                            T current_A) noexcept {
+    if (!detail::finite(current_A)) return {T(0), status::not_finite};
+    const result<series_transport<T, N>> st = transport_at(m, temperature_K, pressure_Pa);
+    status s = st.code;
+    if (st.value.count == 0) return {T(0), s};
+    const T flow = current_A / (static_cast<T>(m.electrons) * faraday_C_mol<T>);
+    const result<T> y = outer_fraction_for_flow(st.value, flow);
+    // A saturated march (no finite fraction drives this current) reads as full range.
+    s |= has(y.code, status::out_of_domain) ? status::above_range : y.code;
+    const T clamped = detail::clamp_fraction(y.value, s);
+    return {clamped, s};
+}
+
+/// Span factor s(T, P) = S(T, P) / S(T_ref, P_ref), times P_ref / P when the
+/// reading is a partial pressure; dimensionless.
+template <class T, std::size_t N>
+inline result<T> span_factor(const sensor_model<T, N>& m, T temperature_K, T pressure_Pa) noexcept {
+    const result<T> s = sensitivity_A_per_mol_per_mol(m, temperature_K, pressure_Pa);
+    const result<T> s_ref = sensitivity_A_per_mol_per_mol(m, m.reference_temperature_K, m.reference_pressure_Pa);
+    const status code = s.code | s_ref.code;
+    if (!(s.value > T(0)) || !(s_ref.value > T(0))) return {T(1), code | status::out_of_domain};
+    T ratio = s.value / s_ref.value;
+    if (m.reading == reading_kind::partial_pressure) ratio *= m.reference_pressure_Pa / pressure_Pa;
+    return {ratio, code};
+}
+
+namespace detail {
+
+/// Central-difference step for d ln s / dx at x: x * eps^(1/3).
+template <class T>
+inline T derivative_step(T x) noexcept {
+    return std::fabs(x) * std::cbrt(std::numeric_limits<T>::epsilon());
+}
+
+}  // namespace detail
+
+/// Temperature coefficient of the span, d ln s / dT at (T, P), in 1/K
+/// (central difference on the full model).
+template <class T, std::size_t N>
+inline result<T> temperature_coefficient_per_K(const sensor_model<T, N>& m, T temperature_K, T pressure_Pa) noexcept {
+    const T h = detail::derivative_step(temperature_K);
+    const result<T> hi = span_factor(m, temperature_K + h, pressure_Pa);
+    const result<T> lo = span_factor(m, temperature_K - h, pressure_Pa);
+    const status code = hi.code | lo.code;
+    if (code != status::ok) return {T(0), code};
+    return {(std::log(hi.value) - std::log(lo.value)) / (T(2) * h), status::ok};
+}
+
+/// Pressure coefficient of the span, d ln s / dP at (T, P), in 1/Pa.
+template <class T, std::size_t N>
+inline result<T> pressure_coefficient_per_Pa(const sensor_model<T, N>& m, T temperature_K, T pressure_Pa) noexcept {
+    const T h = detail::derivative_step(pressure_Pa);
+    const result<T> hi = span_factor(m, temperature_K, pressure_Pa + h);
+    const result<T> lo = span_factor(m, temperature_K, pressure_Pa - h);
+    const status code = hi.code | lo.code;
+    if (code != status::ok) return {T(0), code};
+    return {(std::log(hi.value) - std::log(lo.value)) / (T(2) * h), status::ok};
+}
+
+/// Linearity ratio I(y) / (S y) at (T, P): 1 for a linear cell, 1.1221 for a
+/// stagnant-film capillary at 20.95 % O2; 1 at y = 0.
+template <class T, std::size_t N>
+inline result<T> linearity_ratio(const sensor_model<T, N>& m, T temperature_K, T pressure_Pa,
+                                 T mole_fraction) noexcept {
+    const result<T> s = sensitivity_A_per_mol_per_mol(m, temperature_K, pressure_Pa);
+    const result<T> i = limiting_current_A(m, temperature_K, pressure_Pa, mole_fraction);
+    status code = s.code | i.code;
+    if (!(s.value > T(0))) return {T(1), code | status::out_of_domain};
+    const T y = detail::clamp_fraction(mole_fraction, code);
+    if (!(y > T(0))) return {T(1), code};
+    return {i.value / (s.value * y), code};
+}
+
+/// What the design report says of one element.
+template <class T>
+struct element_report {
+    T knudsen_number;            ///< lambda / d (0 for a membrane)
+    T resistance_share;          ///< share of the total dilute-limit resistance, 0..1
+    T knudsen_share;             ///< share of this element's resistance that is Knudsen (linear), 0..1
+    T area_m2;                   ///< cross-section, m2
+    T effective_length_m;        ///< effective length, m
+};
+
+/// Reports of every element of a sensor at (T, P) and which one limits.
+template <class T, std::size_t N>
+struct series_report {
+    std::array<element_report<T>, N> elements;  ///< outside first
+    std::size_t count;                          ///< elements in use
+    std::size_t limiting_element;               ///< index of the largest resistance share
+    T mean_free_path_m;                         ///< mean free path of the background gas, m
+    T diffusivity_m2_s;                         ///< free-gas D_AB, m2/s
+};
+
+/// Per-element Knudsen numbers and resistance shares (the shares sum to 1).
+template <class T, std::size_t N>
+inline result<series_report<T, N>> element_reports(const sensor_model<T, N>& m, T temperature_K,
+                                                   T pressure_Pa) noexcept {
+    series_report<T, N> r{};
+    const result<series_transport<T, N>> st = transport_at(m, temperature_K, pressure_Pa);
+    r.count = st.value.count;
+    if (r.count == 0) return {r, st.code};
+    const T c = st.value.total_concentration_mol_m3;
+    const T total = dilute_resistance_s_per_mol(st.value);
+    T largest = T(-1);
+    for (std::size_t i = 0; i < r.count; ++i) {
+        const element_transport<T>& e = st.value.elements[i];
+        const T share = dilute_resistance_s_per_mol(e, c) / total;
+        r.elements[i] = element_report<T>{e.knudsen_number, share,
+                                          e.inv_linear_s_m2 / (e.inv_molecular_s_m2 + e.inv_linear_s_m2),
+                                          e.area_m2, e.length_m};
+        if (share > largest) { largest = share; r.limiting_element = i; }
+    }
+    r.diffusivity_m2_s = evaluate(m.diffusivity, temperature_K, pressure_Pa).value;
+    r.mean_free_path_m = mean_free_path(kinetic_diameter_m<T>(*m.background), temperature_K, pressure_Pa).value;
+    return {r, st.code};
+}
+
+}  // namespace counterflux
+
+#endif  // COUNTERFLUX_SIGNAL_HPP
