@@ -107,13 +107,13 @@ constexpr result<const gas_data*> find_gas(const char* formula_or_name) noexcept
 /// Molar mass of g in kg/mol.
 template <class T>
 constexpr T molar_mass_kg_mol(const gas_data& g) noexcept {
-    return static_cast<T>(g.molar_mass_g_mol * 1.0e-3);
+    return static_cast<T>(g.molar_mass_g_mol) * T(1.0e-3);
 }
 
 /// Kinetic diameter of g in m.
 template <class T>
 constexpr T kinetic_diameter_m(const gas_data& g) noexcept {
-    return static_cast<T>(g.kinetic_diameter_angstrom * 1.0e-10);
+    return static_cast<T>(g.kinetic_diameter_angstrom) * T(1.0e-10);
 }
 
 }  // namespace counterflux
