@@ -114,7 +114,8 @@ inline result<T> element_flux(const element_transport<T>& e, T total_concentrati
 
 /// Mole fraction at the outlet of element e carrying flux N (mol/(m2 s)) from
 /// inlet fraction y_in: the inverse of element_flux in y_out. Flags
-/// out_of_domain (value -max) when the flux cannot be carried.
+/// out_of_domain (value -max or +max, the side the fraction runs off to) when
+/// the flux cannot be carried.
 template <class T>
 inline result<T> element_outlet(const element_transport<T>& e, T total_concentration_mol_m3, T alpha, T y_in,
                                 T flux_mol_m2_s) noexcept {
@@ -129,14 +130,15 @@ inline result<T> element_outlet(const element_transport<T>& e, T total_concentra
     if (!(q1 > T(0))) return {y_in, status::out_of_domain};
     const T ln_c = e.length_m * flux_mol_m2_s / total_concentration_mol_m3;  // L N / c, m2/s
     const T z = alpha * e.inv_molecular_s_m2 * ln_c;
-    if (z > detail::max_exponent<T>()) return {-detail::max_finite<T>(), status::out_of_domain};
+    if (z > detail::max_exponent<T>())  // the outlet fraction runs off to -inf (N > 0) or +inf (N < 0)
+        return {ln_c > T(0) ? -detail::max_finite<T>() : detail::max_finite<T>(), status::out_of_domain};
     return {y_in - q1 * ln_c * detail::expm1_over_x(z), status::ok};
 }
 
 /// Mole fraction at the inlet of element e that drives flux N (mol/(m2 s)) to
 /// outlet fraction y_out: the inverse of element_flux in y_in. For alpha > 0
 /// the value tends to (r_m + r_l)/(alpha r_m) as N grows. Flags out_of_domain
-/// (value +max) when no finite inlet fraction drives the flux.
+/// (value +max or -max) when no finite inlet fraction drives the flux.
 template <class T>
 inline result<T> element_inlet(const element_transport<T>& e, T total_concentration_mol_m3, T alpha, T y_out,
                                T flux_mol_m2_s) noexcept {
@@ -151,7 +153,8 @@ inline result<T> element_inlet(const element_transport<T>& e, T total_concentrat
     if (!(q2 > T(0))) return {y_out, status::out_of_domain};
     const T ln_c = e.length_m * flux_mol_m2_s / total_concentration_mol_m3;
     const T z = -alpha * e.inv_molecular_s_m2 * ln_c;
-    if (z > detail::max_exponent<T>()) return {detail::max_finite<T>(), status::out_of_domain};
+    if (z > detail::max_exponent<T>())  // the inlet fraction runs off to +inf (N > 0) or -inf (N < 0)
+        return {ln_c > T(0) ? detail::max_finite<T>() : -detail::max_finite<T>(), status::out_of_domain};
     return {y_out + q2 * ln_c * detail::expm1_over_x(z), status::ok};
 }
 

@@ -139,23 +139,11 @@ inline result<T> mole_fraction_from_current(const sensor_model<T, N>& m, T tempe
     if (st.value.count == 0) return {T(0), s};
     const T flow = current_A / (static_cast<T>(m.electrons) * faraday_C_mol<T>);
     const result<T> y = outer_fraction_for_flow(st.value, flow);
-    // A saturated march (no finite fraction drives this current) reads as full range.
-    s |= has(y.code, status::out_of_domain) ? status::above_range : y.code;
+    // A saturated march (no finite fraction drives this current) returns +-max
+    // flagged out_of_domain; the clamp below turns it into an edge reading.
+    if (!has(y.code, status::out_of_domain)) s |= y.code;
     const T clamped = detail::clamp_fraction(y.value, s);
     return {clamped, s};
-}
-
-/// Span factor s(T, P) = S(T, P) / S(T_ref, P_ref), times P_ref / P when the
-/// reading is a partial pressure; dimensionless.
-template <class T, std::size_t N>
-inline result<T> span_factor(const sensor_model<T, N>& m, T temperature_K, T pressure_Pa) noexcept {
-    const result<T> s = sensitivity_A_per_mol_per_mol(m, temperature_K, pressure_Pa);
-    const result<T> s_ref = sensitivity_A_per_mol_per_mol(m, m.reference_temperature_K, m.reference_pressure_Pa);
-    const status code = s.code | s_ref.code;
-    if (!(s.value > T(0)) || !(s_ref.value > T(0))) return {T(1), code | status::out_of_domain};
-    T ratio = s.value / s_ref.value;
-    if (m.reading == reading_kind::partial_pressure) ratio *= m.reference_pressure_Pa / pressure_Pa;
-    return {ratio, code};
 }
 
 namespace detail {
@@ -166,29 +154,51 @@ inline T derivative_step(T x) noexcept {
     return std::fabs(x) * std::cbrt(std::numeric_limits<T>::epsilon());
 }
 
+/// Sensitivity per unit of the reading at (T, P): S in A per mol/mol, or S / P
+/// in A/Pa for a partial-pressure reading. Its logarithm differs from ln s by a constant.
+template <class T, std::size_t N>
+inline result<T> reading_sensitivity(const sensor_model<T, N>& m, T temperature_K, T pressure_Pa) noexcept {
+    const result<T> s = sensitivity_A_per_mol_per_mol(m, temperature_K, pressure_Pa);
+    if (m.reading == reading_kind::partial_pressure && pressure_Pa > T(0)) return {s.value / pressure_Pa, s.code};
+    return s;
+}
+
+/// Central difference of ln(reading_sensitivity) between two conditions a step 2h apart.
+template <class T, std::size_t N>
+inline result<T> log_slope(const sensor_model<T, N>& m, T t_hi, T p_hi, T t_lo, T p_lo, T h) noexcept {
+    const result<T> hi = reading_sensitivity(m, t_hi, p_hi);
+    const result<T> lo = reading_sensitivity(m, t_lo, p_lo);
+    const status code = hi.code | lo.code;
+    if (!(hi.value > T(0)) || !(lo.value > T(0)) || !(h > T(0))) return {T(0), code | status::out_of_domain};
+    return {(std::log(hi.value) - std::log(lo.value)) / (T(2) * h), code};
+}
+
 }  // namespace detail
+
+/// Span factor s(T, P) = S(T, P) / S(T_ref, P_ref), times P_ref / P when the
+/// reading is a partial pressure; dimensionless.
+template <class T, std::size_t N>
+inline result<T> span_factor(const sensor_model<T, N>& m, T temperature_K, T pressure_Pa) noexcept {
+    const result<T> s = detail::reading_sensitivity(m, temperature_K, pressure_Pa);
+    const result<T> s_ref = detail::reading_sensitivity(m, m.reference_temperature_K, m.reference_pressure_Pa);
+    const status code = s.code | s_ref.code;
+    if (!(s.value > T(0)) || !(s_ref.value > T(0))) return {T(1), code | status::out_of_domain};
+    return {s.value / s_ref.value, code};
+}
 
 /// Temperature coefficient of the span, d ln s / dT at (T, P), in 1/K
 /// (central difference on the full model).
 template <class T, std::size_t N>
 inline result<T> temperature_coefficient_per_K(const sensor_model<T, N>& m, T temperature_K, T pressure_Pa) noexcept {
     const T h = detail::derivative_step(temperature_K);
-    const result<T> hi = span_factor(m, temperature_K + h, pressure_Pa);
-    const result<T> lo = span_factor(m, temperature_K - h, pressure_Pa);
-    const status code = hi.code | lo.code;
-    if (code != status::ok) return {T(0), code};
-    return {(std::log(hi.value) - std::log(lo.value)) / (T(2) * h), status::ok};
+    return detail::log_slope(m, temperature_K + h, pressure_Pa, temperature_K - h, pressure_Pa, h);
 }
 
 /// Pressure coefficient of the span, d ln s / dP at (T, P), in 1/Pa.
 template <class T, std::size_t N>
 inline result<T> pressure_coefficient_per_Pa(const sensor_model<T, N>& m, T temperature_K, T pressure_Pa) noexcept {
     const T h = detail::derivative_step(pressure_Pa);
-    const result<T> hi = span_factor(m, temperature_K, pressure_Pa + h);
-    const result<T> lo = span_factor(m, temperature_K, pressure_Pa - h);
-    const status code = hi.code | lo.code;
-    if (code != status::ok) return {T(0), code};
-    return {(std::log(hi.value) - std::log(lo.value)) / (T(2) * h), status::ok};
+    return detail::log_slope(m, temperature_K, pressure_Pa + h, temperature_K, pressure_Pa - h, h);
 }
 
 /// Linearity ratio I(y) / (S y) at (T, P): 1 for a linear cell, 1.1221 for a
