@@ -1,0 +1,149 @@
+// tools/atomic_write.cpp - see atomic_write.hpp (POSIX implementation).
+#include "atomic_write.hpp"
+
+#include <cerrno>
+#include <cstring>
+#include <ostream>
+#include <streambuf>
+#include <string>
+#include <vector>
+
+#include <fcntl.h>
+#include <sys/stat.h>
+#include <unistd.h>
+
+#include "errors.hpp"
+
+namespace counterflux::tool {
+
+namespace {
+
+constexpr std::string_view temp_marker = ".tmp-";
+
+std::string system_message(int error_number) { return std::strerror(error_number); }
+
+[[noreturn]] void fail(const std::filesystem::path& target, const std::string& what, int error_number) {
+    throw run_error("cannot write '" + target.string() + "': " + what + ": " + system_message(error_number));
+}
+
+// A stream buffer over a file descriptor that throws on a failed write.
+class fd_buffer : public std::streambuf {
+public:
+    fd_buffer(int fd, const std::filesystem::path& target) : fd_(fd), target_(target), buffer_(1 << 16) {
+        setp(buffer_.data(), buffer_.data() + buffer_.size());
+    }
+
+    void flush_all() {
+        const char* p = pbase();
+        std::size_t left = static_cast<std::size_t>(pptr() - pbase());
+        while (left > 0) {
+            const ssize_t n = ::write(fd_, p, left);
+            if (n < 0) {
+                if (errno == EINTR) continue;
+                fail(target_, "write failed", errno);
+            }
+            p += n;
+            left -= static_cast<std::size_t>(n);
+        }
+        setp(buffer_.data(), buffer_.data() + buffer_.size());
+    }
+
+protected:
+    int_type overflow(int_type ch) override {
+        flush_all();
+        if (!traits_type::eq_int_type(ch, traits_type::eof())) {
+            *pptr() = traits_type::to_char_type(ch);
+            pbump(1);
+        }
+        return traits_type::not_eof(ch);
+    }
+
+    int sync() override {
+        flush_all();
+        return 0;
+    }
+
+private:
+    int fd_;
+    const std::filesystem::path& target_;
+    std::vector<char> buffer_;
+};
+
+// Removes the temporary file unless released.
+struct temp_guard {
+    std::string path;
+    int fd = -1;
+    bool armed = true;
+    ~temp_guard() {
+        if (fd >= 0) ::close(fd);
+        if (armed && !path.empty()) ::unlink(path.c_str());
+    }
+};
+
+mode_t new_file_mode(const std::filesystem::path& target) {
+    struct stat st {};
+    if (::stat(target.c_str(), &st) == 0 && S_ISREG(st.st_mode)) return st.st_mode & 07777;
+    const mode_t mask = ::umask(0);
+    ::umask(mask);
+    return static_cast<mode_t>(0666 & ~mask);
+}
+
+void fsync_directory(const std::filesystem::path& dir) {
+    const int fd = ::open(dir.c_str(), O_RDONLY | O_DIRECTORY | O_CLOEXEC);
+    if (fd < 0) return;  // best effort: the rename itself already happened
+    (void)::fsync(fd);
+    ::close(fd);
+}
+
+}  // namespace
+
+bool is_atomic_write_temporary(std::string_view name) noexcept {
+    return name.size() > 1 && name.front() == '.' && name.find(temp_marker) != std::string_view::npos;
+}
+
+void atomic_write(const std::filesystem::path& target, const std::function<void(std::ostream&)>& producer) {
+    if (target.empty()) throw run_error("cannot write: empty output path");
+    if (target.filename().empty()) fail(target, "not a file name", EISDIR);
+    std::error_code ec;
+    if (std::filesystem::is_directory(target, ec)) fail(target, "target is a directory", EISDIR);
+
+    const std::filesystem::path dir = target.has_parent_path() ? target.parent_path() : ".";
+    std::string pattern = (dir / ("." + target.filename().string() + std::string(temp_marker) + "XXXXXX")).string();
+
+    temp_guard guard;
+    std::vector<char> name(pattern.begin(), pattern.end());
+    name.push_back('\0');
+    guard.fd = ::mkstemp(name.data());
+    if (guard.fd < 0) fail(target, "cannot create a temporary file in '" + dir.string() + "'", errno);
+    guard.path = name.data();
+
+    {
+        fd_buffer buffer(guard.fd, target);
+        std::ostream out(&buffer);
+        out.exceptions(std::ios::badbit);
+        try {
+            producer(out);
+            out.flush();
+        } catch (const std::ios_base::failure&) {
+            // The buffer threw run_error inside a stream operation; the stream
+            // turned it into badbit and rethrew as ios failure on some paths.
+            fail(target, "write failed", errno != 0 ? errno : EIO);
+        }
+        buffer.flush_all();
+    }
+
+    if (::fchmod(guard.fd, new_file_mode(target)) != 0) fail(target, "cannot set permissions", errno);
+    if (::fsync(guard.fd) != 0) fail(target, "fsync failed", errno);
+    const int fd = guard.fd;
+    guard.fd = -1;
+    if (::close(fd) != 0) fail(target, "close failed", errno);
+    if (::rename(guard.path.c_str(), target.c_str()) != 0) fail(target, "rename failed", errno);
+    guard.armed = false;
+    fsync_directory(dir);
+}
+
+void atomic_write(const std::filesystem::path& target, std::string_view content) {
+    atomic_write(target, [content](std::ostream& out) { out.write(content.data(), static_cast<std::streamsize>(content.size())); });
+}
+
+}  // namespace counterflux::tool

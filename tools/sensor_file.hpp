@@ -1,0 +1,88 @@
+// tools/sensor_file.hpp - the one sensor-file reader: TOML -> library types.
+//
+// Reads a sensor file (the keys of docs/sensor-file.md), checks every key for
+// presence, type, unit kind and range, and builds the library's sensor_model.
+// All problems found are reported together, each with FILE:LINE:COLUMN from the
+// TOML source, as one input_error (exit status 2).
+#ifndef COUNTERFLUX_TOOLS_SENSOR_FILE_HPP
+#define COUNTERFLUX_TOOLS_SENSOR_FILE_HPP
+
+#include <cstddef>
+#include <filesystem>
+#include <optional>
+#include <string>
+#include <string_view>
+#include <vector>
+
+#include <counterflux/counterflux.hpp>
+
+#include "errors.hpp"
+
+namespace counterflux::tool {
+
+/// Most barrier elements a sensor file may list.
+inline constexpr std::size_t max_elements = 8;
+
+/// The library model the tool works with.
+using model_type = counterflux::sensor_model<double, max_elements>;
+
+/// One axis of [table]: from, to (SI) and the number of nodes.
+struct axis_spec {
+    double from = 0.0;
+    double to = 0.0;
+    unsigned points = 0;
+};
+
+/// [table]: lookup-table axes, value type and the error bound to prove.
+struct table_spec {
+    axis_spec temperature;                     ///< K
+    axis_spec pressure;                        ///< Pa
+    std::string values = "float32";            ///< "float32" or "q15"
+    double max_error = 1.0e-3;                 ///< relative interpolation error bound
+    source_place place;                        ///< the [table] header
+};
+
+/// [response]: optional parts of the step-response chain (SI).
+struct response_spec {
+    std::optional<double> front_volume_m3;     ///< flushed volume ahead of the barrier
+    std::optional<double> sample_flow_m3_s;    ///< sample flow through it
+    std::optional<double> cavity_volume_m3;    ///< gas space between barrier and electrode
+    double electrode_rate_m_s = 0.0;           ///< first-order sink rate; +inf = perfect sink
+    std::optional<double> duration_s;          ///< simulated time
+    source_place place;                        ///< the [response] header
+};
+
+/// Everything read from one sensor file.
+struct sensor_file {
+    std::string path;                          ///< as given (used in messages)
+    std::string text;                          ///< the file's bytes (for hashing)
+    std::string symbol;                        ///< C identifier prefix
+    std::string flux_ratio_name;               ///< "equimolar", "stagnant" or "" for a number
+    double full_scale_mol_mol = 0.0;           ///< full scale, mol/mol
+    model_type model{};                        ///< the library model
+    std::vector<source_place> element_places;  ///< the [[barrier]] header of each element
+    source_place sensor_place;                 ///< the [sensor] header
+    source_place full_scale_place;             ///< the full_scale value
+    std::optional<table_spec> table;           ///< [table], if present
+    std::optional<response_spec> response;     ///< [response], if present
+};
+
+/// Reads and checks the file at path. Throws input_error.
+sensor_file read_sensor_file(const std::filesystem::path& path);
+
+/// Parses and checks text as a sensor file; path is only used in messages.
+/// Throws input_error.
+sensor_file parse_sensor_file(std::string_view text, const std::string& path);
+
+/// Known gas formulas, comma-separated (for messages).
+std::string known_gas_formulas();
+
+/// Edit distance (optimal string alignment: insert, delete, substitute, swap).
+std::size_t edit_distance(std::string_view a, std::string_view b);
+
+/// The candidate closest to word, if it is close enough to be a likely typo.
+std::optional<std::string> closest_match(std::string_view word, const std::vector<std::string>& candidates);
+
+}  // namespace counterflux::tool
+
+#endif  // COUNTERFLUX_TOOLS_SENSOR_FILE_HPP
