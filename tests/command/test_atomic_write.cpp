@@ -1,0 +1,138 @@
+// The one atomic file writer: a failure at any point leaves the target as it
+// was and no temporary file behind.
+#include <doctest/doctest.h>
+
+#include <filesystem>
+#include <fstream>
+#include <sstream>
+#include <stdexcept>
+#include <string>
+
+#include <sys/stat.h>
+#include <unistd.h>
+
+#include "atomic_write.hpp"
+#include "errors.hpp"
+
+namespace fs = std::filesystem;
+using counterflux::tool::atomic_write;
+using counterflux::tool::run_error;
+
+namespace {
+
+// A fresh scratch directory for one test case, removed afterwards.
+struct scratch {
+    fs::path dir;
+    explicit scratch(const std::string& name) {
+        dir = fs::temp_directory_path() / ("counterflux_atomic_" + name + "_" + std::to_string(::getpid()));
+        fs::remove_all(dir);
+        fs::create_directories(dir);
+    }
+    ~scratch() {
+        std::error_code ec;
+        fs::remove_all(dir, ec);
+    }
+    std::size_t temporaries() const {
+        std::size_t n = 0;
+        for (const auto& e : fs::directory_iterator(dir))
+            if (counterflux::tool::is_atomic_write_temporary(e.path().filename().string())) ++n;
+        return n;
+    }
+};
+
+std::string read(const fs::path& p) {
+    std::ifstream in(p, std::ios::binary);
+    std::ostringstream s;
+    s << in.rdbuf();
+    return s.str();
+}
+
+void write_plain(const fs::path& p, const std::string& text) {
+    std::ofstream out(p, std::ios::binary);
+    out << text;
+}
+
+}  // namespace
+
+TEST_CASE("atomic write: creates and replaces a file") {
+    scratch s("replace");
+    const fs::path target = s.dir / "report.json";
+    atomic_write(target, std::string("first\n"));
+    CHECK(read(target) == "first\n");
+    atomic_write(target, std::string("second, longer\n"));
+    CHECK(read(target) == "second, longer\n");
+    atomic_write(target, std::string(""));
+    CHECK(read(target).empty());
+    CHECK(s.temporaries() == 0);
+}
+
+TEST_CASE("atomic write: a producer that fails midway leaves the old file and no temporary") {
+    scratch s("producer");
+    const fs::path target = s.dir / "table.bin";
+    write_plain(target, "good old content");
+    // More than the writer's buffer, so part of it has reached the temporary file.
+    const std::string chunk(200000, 'x');
+    CHECK_THROWS_AS(atomic_write(target,
+                                 [&](std::ostream& out) {
+                                     out << chunk;
+                                     throw std::runtime_error("generator failed");
+                                 }),
+                    std::runtime_error);
+    CHECK(read(target) == "good old content");
+    CHECK(s.temporaries() == 0);
+}
+
+TEST_CASE("atomic write: streaming output arrives whole") {
+    scratch s("stream");
+    const fs::path target = s.dir / "big.csv";
+    atomic_write(target, [](std::ostream& out) {
+        for (int i = 0; i < 100000; ++i) out << i << '\n';
+    });
+    const std::string text = read(target);
+    CHECK(text.substr(0, 4) == "0\n1\n");
+    CHECK(text.substr(text.size() - 6) == "99999\n");
+    CHECK(s.temporaries() == 0);
+}
+
+TEST_CASE("atomic write: a target that is a directory is refused and left alone") {
+    scratch s("directory");
+    const fs::path target = s.dir / "out";
+    fs::create_directories(target);
+    write_plain(target / "keep.txt", "keep");
+    CHECK_THROWS_AS(atomic_write(target, std::string("x")), run_error);
+    CHECK(fs::is_directory(target));
+    CHECK(read(target / "keep.txt") == "keep");
+    CHECK(s.temporaries() == 0);
+}
+
+TEST_CASE("atomic write: a missing directory is an error, not a crash") {
+    scratch s("missing");
+    CHECK_THROWS_AS(atomic_write(s.dir / "no" / "such" / "dir" / "f.txt", std::string("x")), run_error);
+    try {
+        atomic_write(s.dir / "no" / "f.txt", std::string("x"));
+    } catch (const run_error& e) {
+        CHECK(std::string(e.what()).find("cannot write") != std::string::npos);
+    }
+}
+
+TEST_CASE("atomic write: an existing file keeps its permissions") {
+    scratch s("mode");
+    const fs::path target = s.dir / "f.h";
+    write_plain(target, "old");
+    ::chmod(target.c_str(), 0640);
+    atomic_write(target, std::string("new"));
+    struct stat st {};
+    REQUIRE(::stat(target.c_str(), &st) == 0);
+    CHECK((st.st_mode & 0777) == 0640);
+    CHECK(read(target) == "new");
+}
+
+TEST_CASE("atomic write: a relative name writes in the current directory") {
+    scratch s("relative");
+    const fs::path old = fs::current_path();
+    fs::current_path(s.dir);
+    atomic_write("plain.txt", std::string("here"));
+    fs::current_path(old);
+    CHECK(read(s.dir / "plain.txt") == "here");
+    CHECK(s.temporaries() == 0);
+}

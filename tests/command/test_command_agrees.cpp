@@ -1,0 +1,183 @@
+// The command adds no physics: the numbers `design --json` and
+// `diffusivity --json` print are the library's, called directly on the same
+// model (built by the same sensor-file reader).
+#include <doctest/doctest.h>
+
+#include <array>
+#include <cstdio>
+#include <string>
+#include <sys/wait.h>
+
+#include <nlohmann/json.hpp>
+
+#include <counterflux/counterflux.hpp>
+
+#include "sensor_file.hpp"
+
+namespace {
+
+const std::string command = COUNTERFLUX_COMMAND;
+const std::string examples = COUNTERFLUX_SOURCE_DIR "/examples/";
+
+struct run_result {
+    int status;
+    std::string out;
+};
+
+std::string shell_quote(const std::string& s) {
+    std::string q = "'";
+    for (char c : s) {
+        if (c == '\'') q += "'\\''";
+        else q += c;
+    }
+    return q + "'";
+}
+
+// Runs the command with args (each quoted), capturing standard output.
+run_result run(const std::vector<std::string>& args) {
+    std::string line = shell_quote(command);
+    for (const auto& a : args) line += " " + shell_quote(a);
+    line += " 2>/dev/null";
+    FILE* pipe = ::popen(line.c_str(), "r");
+    REQUIRE(pipe != nullptr);
+    std::string out;
+    std::array<char, 4096> buffer{};
+    std::size_t n = 0;
+    while ((n = std::fread(buffer.data(), 1, buffer.size(), pipe)) > 0) out.append(buffer.data(), n);
+    const int raw = ::pclose(pipe);
+    return {WIFEXITED(raw) ? WEXITSTATUS(raw) : -1, out};
+}
+
+nlohmann::json run_json(const std::vector<std::string>& args) {
+    const run_result r = run(args);
+    REQUIRE(r.status == 0);
+    return nlohmann::json::parse(r.out);
+}
+
+// JSON round-trips doubles exactly; allow only the last-digit noise of printing.
+void same(const nlohmann::json& j, const char* key, double library) {
+    CAPTURE(key);
+    REQUIRE(j.contains(key));
+    REQUIRE(j[key].is_number());
+    CHECK(j[key].get<double>() == doctest::Approx(library).epsilon(1e-14));
+}
+
+void check_design(const std::string& file, const std::vector<std::string>& flags, double t, double p, double y) {
+    const auto f = counterflux::tool::read_sensor_file(file);
+    const auto& m = f.model;
+    if (t == 0.0) t = m.reference_temperature_K;
+    if (p == 0.0) p = m.reference_pressure_Pa;
+    if (y < 0.0) y = f.full_scale_mol_mol;
+
+    std::vector<std::string> args = {"design", file, "--json"};
+    args.insert(args.end(), flags.begin(), flags.end());
+    const nlohmann::json j = run_json(args);
+
+    same(j, "temperature_K", t);
+    same(j, "pressure_Pa", p);
+    same(j, "concentration_mol_mol", y);
+    same(j, "current_A", counterflux::limiting_current_A(m, t, p, y).value);
+    same(j, "sensitivity_A_per_mol_per_mol", counterflux::sensitivity_A_per_mol_per_mol(m, t, p).value);
+    same(j, "temperature_coefficient_per_K", counterflux::temperature_coefficient_per_K(m, t, p).value);
+    same(j, "pressure_coefficient_per_Pa", counterflux::pressure_coefficient_per_Pa(m, t, p).value);
+    same(j, "linearity_ratio", counterflux::linearity_ratio(m, t, p, y).value);
+    same(j, "span_factor", counterflux::span_factor(m, t, p).value);
+    const auto reports = counterflux::element_reports(m, t, p);
+    REQUIRE(reports.ok());
+    REQUIRE(j["knudsen_numbers"].size() == m.barriers.count);
+    REQUIRE(j["resistance_shares"].size() == m.barriers.count);
+    for (std::size_t i = 0; i < m.barriers.count; ++i) {
+        CHECK(j["knudsen_numbers"][i].get<double>() ==
+              doctest::Approx(reports.value.elements[i].knudsen_number).epsilon(1e-14));
+        CHECK(j["resistance_shares"][i].get<double>() ==
+              doctest::Approx(reports.value.elements[i].resistance_share).epsilon(1e-14));
+    }
+    CHECK(j["limiting_element"].get<std::size_t>() == reports.value.limiting_element);
+}
+
+}  // namespace
+
+TEST_CASE("design --json equals the library on the garage CO example") {
+    const std::string file = examples + "garage_co.toml";
+    check_design(file, {}, 0.0, 0.0, -1.0);
+    check_design(file, {"--temperature", "40 C", "--pressure", "95 kPa", "--concentration", "200 ppm"}, 313.15,
+                 95000.0, 200e-6);
+    check_design(file, {"--temperature", "-20 C", "--concentration", "0"}, 253.15, 0.0, 0.0);
+}
+
+TEST_CASE("design --json equals the library on the flue-gas O2 example") {
+    const std::string file = examples + "flue_o2_altitude.toml";
+    check_design(file, {}, 0.0, 0.0, -1.0);
+    check_design(file, {"--concentration", "20.95 %"}, 0.0, 0.0, 0.2095);
+    check_design(file, {"--pressure", "1 atm", "--temperature", "5 C"}, 278.15, 101325.0, -1.0);
+}
+
+TEST_CASE("design: the O2 example is strongly non-linear at air level") {
+    const nlohmann::json j =
+        run_json({"design", examples + "flue_o2_altitude.toml", "--json", "--concentration", "20.95 %"});
+    // the stagnant-film log law ln(1/(1-y))/y at y = 0.2095 is 1.1221; the small
+    // Knudsen parts of the barriers pull it slightly towards 1
+    CHECK(j["linearity_ratio"].get<double>() > 1.10);
+    CHECK(j["linearity_ratio"].get<double>() < 1.1221 + 1e-3);
+}
+
+TEST_CASE("diffusivity --json equals the library") {
+    struct pair_case {
+        const char* a;
+        const char* b;
+        const char* t;
+        double t_K;
+        const char* p;
+        double p_Pa;
+    };
+    const pair_case cases[] = {
+        {"N2", "O2", "298.15 K", 298.15, "1 atm", 101325.0},
+        {"CO", "air", "25 C", 298.15, "101.325 kPa", 101325.0},
+        {"O2", "N2", "0 C", 273.15, "1 bar", 1e5},
+        {"H2S", "air", "40 C", 313.15, "90 kPa", 90000.0},
+        {"CO2", "N2", "300", 300.0, "83500", 83500.0},
+    };
+    for (const auto& c : cases) {
+        CAPTURE(c.a);
+        CAPTURE(c.b);
+        const auto* a = counterflux::find_gas(c.a).value;
+        const auto* b = counterflux::find_gas(c.b).value;
+        REQUIRE(a != nullptr);
+        REQUIRE(b != nullptr);
+        const nlohmann::json fuller =
+            run_json({"diffusivity", c.a, c.b, "--temperature", c.t, "--pressure", c.p, "--json"});
+        CHECK(fuller["method"] == "fuller");
+        same(fuller, "temperature_K", c.t_K);
+        same(fuller, "pressure_Pa", c.p_Pa);
+        same(fuller, "diffusivity_m2_s", counterflux::fuller_diffusivity(*a, *b, c.t_K, c.p_Pa).value);
+        const nlohmann::json ce = run_json(
+            {"diffusivity", c.a, c.b, "--temperature", c.t, "--pressure", c.p, "--method", "chapman-enskog", "--json"});
+        CHECK(ce["method"] == "chapman-enskog");
+        same(ce, "diffusivity_m2_s", counterflux::chapman_enskog_diffusivity(*a, *b, c.t_K, c.p_Pa).value);
+    }
+}
+
+TEST_CASE("diffusivity: defaults are 298.15 K, 101325 Pa and fuller") {
+    const nlohmann::json j = run_json({"diffusivity", "CO", "air", "--json"});
+    CHECK(j["method"] == "fuller");
+    CHECK(j["temperature_K"].get<double>() == 298.15);
+    CHECK(j["pressure_Pa"].get<double>() == 101325.0);
+    const auto* co = counterflux::find_gas("CO").value;
+    const auto* air = counterflux::find_gas("air").value;
+    same(j, "diffusivity_m2_s", counterflux::fuller_diffusivity(*co, *air, 298.15, 101325.0).value);
+}
+
+TEST_CASE("design: the human report shows the library's sensitivity in nA/ppm") {
+    const std::string file = examples + "garage_co.toml";
+    const auto f = counterflux::tool::read_sensor_file(file);
+    const double s = counterflux::sensitivity_A_per_mol_per_mol(f.model, f.model.reference_temperature_K,
+                                                                f.model.reference_pressure_Pa)
+                         .value;
+    const run_result r = run({"design", file});
+    REQUIRE(r.status == 0);
+    char expected[64];
+    std::snprintf(expected, sizeof expected, "%.4g nA/ppm", counterflux::to_nA_per_ppm(s));
+    CAPTURE(r.out);
+    CHECK(r.out.find(expected) != std::string::npos);
+    CHECK(r.out.find("limiting element") != std::string::npos);
+}

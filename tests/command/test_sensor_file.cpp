@@ -1,0 +1,229 @@
+// The sensor-file reader: keys to library types in SI, defaults, and errors
+// with FILE:LINE:COLUMN. (The broken-file catalogue in tests/data/bad checks
+// the command end to end; these cases check the reader's values.)
+#include <doctest/doctest.h>
+
+#include <cmath>
+#include <limits>
+#include <string>
+
+#include <counterflux/counterflux.hpp>
+
+#include "errors.hpp"
+#include "sensor_file.hpp"
+
+using counterflux::tool::input_error;
+using counterflux::tool::parse_sensor_file;
+using counterflux::tool::read_sensor_file;
+using counterflux::tool::sensor_file;
+
+namespace {
+
+const std::string examples = COUNTERFLUX_SOURCE_DIR "/examples/";
+
+const std::string minimal = R"([sensor]
+symbol = "cell"
+target = "CO"
+background = "air"
+electrons = 2
+flux_ratio = "equimolar"
+full_scale = "1000 ppm"
+
+[reference]
+temperature = "20 C"
+pressure = "101.325 kPa"
+
+[diffusivity]
+method = "fuller"
+
+[[barrier]]
+type = "capillary"
+diameter = "0.15 mm"
+length = "1.2 mm"
+)";
+
+// The diagnostics of parsing text (empty when it parses).
+std::vector<counterflux::tool::diagnostic> problems(const std::string& text) {
+    try {
+        (void)parse_sensor_file(text, "test.toml");
+    } catch (const input_error& e) {
+        return e.diagnostics();
+    }
+    return {};
+}
+
+std::string first_line(const std::string& text) {
+    const auto d = problems(text);
+    return d.empty() ? std::string() : counterflux::tool::format_diagnostic(d.front());
+}
+
+}  // namespace
+
+TEST_CASE("sensor file: the minimal file, in SI, with the defaults") {
+    const sensor_file f = parse_sensor_file(minimal, "test.toml");
+    const auto& m = f.model;
+    CHECK(f.symbol == "cell");
+    REQUIRE(m.target != nullptr);
+    REQUIRE(m.background != nullptr);
+    CHECK(std::string(m.target->formula) == "CO");
+    CHECK(std::string(m.background->formula) == "air");
+    CHECK(m.electrons == 2u);
+    CHECK(m.flux_ratio == -1.0);
+    CHECK(f.flux_ratio_name == "equimolar");
+    CHECK(m.reading == counterflux::reading_kind::mole_fraction);  // report defaults to fraction
+    CHECK(f.full_scale_mol_mol == doctest::Approx(1e-3).epsilon(1e-15));
+    CHECK(m.reference_temperature_K == doctest::Approx(293.15).epsilon(1e-15));
+    CHECK(m.reference_pressure_Pa == 101325.0);
+    CHECK(m.diffusivity.method == counterflux::diffusivity_method::fuller);
+    CHECK(m.diffusivity.a == m.target);
+    CHECK(m.diffusivity.b == m.background);
+    REQUIRE(m.barriers.count == 1);
+    const auto& b = m.barriers.elements[0];
+    CHECK(b.kind == counterflux::barrier_kind::capillary);
+    CHECK(b.diameter_m == doctest::Approx(1.5e-4).epsilon(1e-15));
+    CHECK(b.length_m == doctest::Approx(1.2e-3).epsilon(1e-15));
+    CHECK(b.count == 1u);             // default
+    CHECK(b.end_correction == true);  // default
+    CHECK(b.knudsen == true);         // default
+    CHECK_FALSE(f.table.has_value());
+    CHECK_FALSE(f.response.has_value());
+    CHECK(f.element_places.size() == 1);
+    CHECK(f.element_places[0].line == 16);
+}
+
+TEST_CASE("sensor file: TOML numbers are bare SI") {
+    std::string text = minimal;
+    text.replace(text.find("\"0.15 mm\""), 9, "0.00015");
+    text.replace(text.find("\"20 C\""), 6, "293.15");
+    text.replace(text.find("\"1000 ppm\""), 10, "1e-3");
+    const sensor_file f = parse_sensor_file(text, "test.toml");
+    CHECK(f.model.barriers.elements[0].diameter_m == 1.5e-4);
+    CHECK(f.model.reference_temperature_K == 293.15);
+    CHECK(f.full_scale_mol_mol == 1e-3);
+}
+
+TEST_CASE("sensor file: the examples") {
+    const sensor_file co = read_sensor_file(examples + "garage_co.toml");
+    CHECK(co.symbol == "garage_co");
+    CHECK(co.model.electrons == 2u);
+    CHECK(co.model.flux_ratio == -1.0);
+    CHECK(co.full_scale_mol_mol == doctest::Approx(500e-6));
+    CHECK(co.model.diffusivity.method == counterflux::diffusivity_method::chapman_enskog);
+    REQUIRE(co.model.barriers.count == 2);
+    CHECK(co.model.barriers.elements[0].kind == counterflux::barrier_kind::porous);
+    CHECK(co.model.barriers.elements[1].kind == counterflux::barrier_kind::capillary);
+    REQUIRE(co.table.has_value());
+    CHECK(co.table->temperature.from == doctest::Approx(253.15));
+    CHECK(co.table->temperature.points == 15u);
+    CHECK(co.table->values == "float32");
+    CHECK(co.table->max_error == doctest::Approx(1e-3));
+    REQUIRE(co.response.has_value());
+    CHECK(std::isinf(co.response->electrode_rate_m_s));
+    CHECK(*co.response->cavity_volume_m3 == doctest::Approx(3e-9));
+    CHECK_FALSE(co.response->front_volume_m3.has_value());
+
+    const sensor_file o2 = read_sensor_file(examples + "flue_o2_altitude.toml");
+    CHECK(o2.symbol == "flue_o2");
+    CHECK(o2.model.electrons == 4u);
+    CHECK(o2.model.flux_ratio == 0.0);
+    CHECK(o2.flux_ratio_name == "stagnant");
+    CHECK(o2.full_scale_mol_mol == doctest::Approx(0.25));
+    // ISO 2533 at 1600 m: 101325 (1 - 2.25577e-5 * 1600)^5.25588 = 83.5 kPa
+    const double iso = 101325.0 * std::pow(1.0 - 2.25577e-5 * 1600.0, 5.25588);
+    CHECK(o2.model.reference_pressure_Pa == doctest::Approx(iso).epsilon(1e-3));
+    REQUIRE(o2.table.has_value());
+    CHECK(o2.table->values == "q15");
+    REQUIRE(o2.response.has_value());
+    CHECK(*o2.response->sample_flow_m3_s == doctest::Approx(0.5e-3 / 60.0));
+    CHECK(*o2.response->front_volume_m3 == doctest::Approx(0.8e-6));
+    // strongly non-linear at air level: the log law at 21 % is ln(1/(1-y))/y = 1.12
+    const auto lin = counterflux::linearity_ratio(o2.model, o2.model.reference_temperature_K,
+                                                  o2.model.reference_pressure_Pa, 0.2095);
+    REQUIRE(lin.ok());
+    CHECK(lin.value > 1.1);
+}
+
+TEST_CASE("sensor file: a measured diffusivity, a membrane, a numeric flux ratio, partial pressure") {
+    std::string text = minimal;
+    text.replace(text.find("method = \"fuller\""), 17,
+                 "method = \"measured\"\nvalue = \"0.208 cm2/s\"\nat_temperature = \"25 C\"\nat_pressure = \"1 atm\"");
+    text.replace(text.find("flux_ratio = \"equimolar\""), 24, "flux_ratio = -2\nreport = \"partial-pressure\"");
+    text += "\n[[barrier]]\ntype = \"membrane\"\nthickness = \"25 um\"\narea = \"10 mm2\"\n"
+            "permeability = \"1000 Barrer\"\nactivation_energy = \"12 kJ/mol\"\ndiffusivity = \"1e-9 m2/s\"\n";
+    const sensor_file f = parse_sensor_file(text, "test.toml");
+    const auto& m = f.model;
+    CHECK(m.flux_ratio == -2.0);
+    CHECK(f.flux_ratio_name.empty());
+    CHECK(m.reading == counterflux::reading_kind::partial_pressure);
+    CHECK(m.diffusivity.method == counterflux::diffusivity_method::measured);
+    CHECK(m.diffusivity.measured_m2_s == doctest::Approx(0.208e-4));
+    CHECK(m.diffusivity.measured_temperature_K == doctest::Approx(298.15));
+    CHECK(m.diffusivity.measured_pressure_Pa == 101325.0);
+    CHECK(m.diffusivity.measured_exponent == 1.75);  // default
+    REQUIRE(m.barriers.count == 2);
+    const auto& b = m.barriers.elements[1];
+    CHECK(b.kind == counterflux::barrier_kind::membrane);
+    CHECK(b.length_m == doctest::Approx(25e-6));
+    CHECK(b.area_m2 == doctest::Approx(10e-6));
+    CHECK(b.permeability_mol_m_s_Pa == doctest::Approx(1000.0 * counterflux::barrer_mol_m_s_Pa<double>));
+    CHECK(b.activation_energy_J_mol == 12000.0);
+    CHECK(b.permeability_temperature_K == m.reference_temperature_K);  // "at the reference temperature"
+    CHECK(b.membrane_diffusivity_m2_s == 1e-9);
+}
+
+TEST_CASE("sensor file: errors carry the file, line and column of the key") {
+    std::string text = minimal;
+    text.replace(text.find("length = \"1.2 mm\""), 17, "length = \"1.2 psi\"");
+    CHECK(first_line(text).rfind("test.toml:19:10: error: 'barrier[1].length'", 0) == 0);
+
+    std::string missing = minimal;
+    missing.erase(missing.find("electrons = 2\n"), 14);
+    CHECK(first_line(missing).rfind("test.toml:1:1: error: missing required key 'electrons' in [sensor]", 0) == 0);
+
+    CHECK(first_line("[sensor\n").rfind("test.toml:1:", 0) == 0);
+    CHECK(first_line("[sensor\n").find("TOML syntax error") != std::string::npos);
+}
+
+TEST_CASE("sensor file: every problem is reported, in file order") {
+    std::string text = minimal;
+    text.replace(text.find("electrons = 2"), 13, "electrons = 0");
+    text.replace(text.find("\"1.2 mm\""), 8, "\"-1 mm\"");
+    text.replace(text.find("symbol = \"cell\""), 15, "symbol = \"9cell\"");
+    const auto d = problems(text);
+    REQUIRE(d.size() == 3);
+    CHECK(d[0].place.line == 2);
+    CHECK(d[1].place.line == 5);
+    CHECK(d[2].place.line == 19);
+}
+
+TEST_CASE("sensor file: did you mean") {
+    std::string text = minimal;
+    text.replace(text.find("diameter"), 8, "diametre");
+    const std::string line = first_line(text);
+    CHECK(line.find("unknown key 'diametre'") != std::string::npos);
+    CHECK(line.find("did you mean 'diameter'?") != std::string::npos);
+    CHECK(problems(text).size() == 1);  // no second "missing 'diameter'" for the same slip
+
+    CHECK(counterflux::tool::edit_distance("length", "lenght") == 1);
+    CHECK(counterflux::tool::edit_distance("", "abc") == 3);
+    CHECK(counterflux::tool::edit_distance("porosity", "porosity") == 0);
+    CHECK(counterflux::tool::closest_match("tortuosty", {"porosity", "tortuosity"}) == std::string("tortuosity"));
+    CHECK_FALSE(counterflux::tool::closest_match("colour", {"symbol", "target", "electrons"}).has_value());
+}
+
+TEST_CASE("sensor file: at most max_elements barriers") {
+    std::string text = minimal;
+    for (std::size_t i = 0; i < counterflux::tool::max_elements; ++i)
+        text += "\n[[barrier]]\ntype = \"capillary\"\ndiameter = \"0.15 mm\"\nlength = \"1.2 mm\"\n";
+    CHECK(first_line(text).find("too many [[barrier]]") != std::string::npos);
+}
+
+TEST_CASE("sensor file: a file that cannot be opened") {
+    try {
+        (void)read_sensor_file("/nonexistent/dir/x.toml");
+        FAIL("no error");
+    } catch (const input_error& e) {
+        CHECK(counterflux::tool::format_diagnostic(e.diagnostics().front()).rfind("/nonexistent/dir/x.toml: error: ", 0) ==
+              0);
+    }
+}
