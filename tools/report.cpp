@@ -31,6 +31,14 @@ std::string format_concentration(double y, int digits) {
     return format_number(from_si(y, "%"), digits) + " %";
 }
 
+std::string format_current(double ampere, int digits) {
+    const double a = std::fabs(ampere);
+    if (a < 1.0e-6) return format_number(from_si(ampere, "nA"), digits) + " nA";
+    if (a < 1.0e-3) return format_number(from_si(ampere, "uA"), digits) + " uA";
+    if (a < 1.0) return format_number(from_si(ampere, "mA"), digits) + " mA";
+    return format_number(ampere, digits) + " A";
+}
+
 std::string format_temperature(double kelvin) {
     return format_number(from_si(kelvin, "C"), 5) + " C (" + format_number(kelvin, 6) + " K)";
 }

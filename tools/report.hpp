@@ -21,6 +21,9 @@ std::string format_signed(double v, int digits = 3);
 /// A mole fraction in the most readable of ppb, ppm, % ("500 ppm", "20.9 %").
 std::string format_concentration(double mol_mol, int digits = 4);
 
+/// A current in the most readable of nA, uA, mA, A.
+std::string format_current(double ampere, int digits = 4);
+
 /// A temperature as "20 C (293.15 K)".
 std::string format_temperature(double kelvin);
 

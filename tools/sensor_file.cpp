@@ -81,6 +81,7 @@ public:
     explicit reader(std::string path) : path_(std::move(path)) {}
 
     std::vector<diagnostic> diagnostics;
+    std::string full_scale_text;  // as written, for the model check
 
     source_place at(const toml::source_region& r) const {
         source_place p;
@@ -103,8 +104,9 @@ public:
             const std::string name(k.str());
             if (std::find(allowed.begin(), allowed.end(), name) != allowed.end()) continue;
             const auto f = std::find_if(foreign.begin(), foreign.end(), [&](const auto& e) { return e.first == name; });
-            source_place p = at(k.source());
-            if (p.line <= 1 && p.column <= 1 && v.source().begin.line > 0) p = at(v);
+            // A [table] header is pointed at by its '['; anything else by its key.
+            const bool header_table = v.is_table() && !v.as_table()->is_inline();
+            source_place p = header_table ? at(v) : at(k.source());
             if (f != foreign.end()) {
                 error(p, "key " + in_quotes(name) + " in " + where + " " + f->second);
                 continue;
@@ -353,6 +355,7 @@ void read_sensor(reader& r, const toml::table& t, sensor_file& out, const source
 
     if (auto fs = r.quantity(t, "full_scale", kind::concentration, true, header, where, "sensor.full_scale")) {
         out.full_scale_place = fs->place;
+        r.full_scale_text = fs->text;
         if (r.require_that(fs->value > 0.0 && fs->value <= 1.0, *fs, "sensor.full_scale",
                            "it must be above zero and at most 100 %"))
             out.full_scale_mol_mol = fs->value;
@@ -654,7 +657,8 @@ void check_model(reader& r, sensor_file& out) {
     }
     const auto i = counterflux::limiting_current_A(m, t, p, out.full_scale_mol_mol);
     if (!i.ok())
-        r.error(out.full_scale_place, "'sensor.full_scale' is outside the model's domain for this sensor: " +
+        r.error(out.full_scale_place, "'sensor.full_scale' = " + r.full_scale_text +
+                                          " is outside the model's domain for this sensor: " +
                                           std::string(counterflux::describe(i.code)));
 }
 

@@ -121,7 +121,7 @@ int run_design(const design_options& o, std::ostream& out) {
       << format_length(reports.mean_free_path_m) << "\n";
     s << "  sensitivity        " << format_number(counterflux::to_nA_per_ppm(sensitivity)) << " nA/ppm ("
       << format_number(sensitivity) << " A per mol/mol)\n";
-    s << "  current            " << format_number(current * 1.0e9) << " nA at " << format_concentration(y) << "\n";
+    s << "  current            " << format_current(current) << " at " << format_concentration(y) << "\n";
     s << "  linearity ratio    " << format_number(linearity, 5) << " (current / dilute-linear current at "
       << format_concentration(y) << ")\n";
     s << "  span factor        " << format_number(span, 5) << " (sensitivity / sensitivity at reference)\n";
