@@ -129,12 +129,7 @@ public:
     const toml::node* get(const toml::table& t, std::string_view key, bool required, const source_place& header,
                           const std::string& where, const std::string& expected) {
         const toml::node* n = t.get(key);
-        // A missing key already explained by a "did you mean" on a misspelt one
-        // is not reported twice.
-        const bool explained = std::any_of(suggested_.begin(), suggested_.end(), [&](const auto& e) {
-            return e.first == &t && e.second == key;
-        });
-        if (n == nullptr && required && !explained)
+        if (n == nullptr && required && !explained(t, key))
             error(header, "missing required key " + in_quotes(key) + " in " + where + " (" + expected + ")");
         return n;
     }
@@ -229,7 +224,7 @@ public:
                              const std::string& what) {
         const toml::node* n = t.get(key);
         if (n == nullptr) {
-            if (required) error(header, "missing required table [" + std::string(key) + "] (" + what + ")");
+            if (required && !explained(t, key)) error(header, "missing required table [" + std::string(key) + "] (" + what + ")");
             return nullptr;
         }
         const auto* tt = n->as_table();
@@ -247,6 +242,13 @@ public:
     const std::string& path() const noexcept { return path_; }
 
 private:
+    // A missing key already explained by a "did you mean" on a misspelt one is
+    // not reported twice.
+    bool explained(const toml::table& t, std::string_view key) const {
+        return std::any_of(suggested_.begin(), suggested_.end(),
+                           [&](const auto& e) { return e.first == &t && e.second == key; });
+    }
+
     std::string path_;
     std::vector<std::pair<const toml::table*, std::string>> suggested_;
 };
