@@ -28,7 +28,7 @@ inline result<T> zero_current_A(T a_A, T b_per_K, T reference_temperature_K, T t
     T x = b_per_K * (temperature_K - reference_temperature_K);
     status s = status::ok;
     if (x > detail::max_exponent<T>()) { x = detail::max_exponent<T>(); s = status::above_range; }
-    return {a_A * std::exp(x), s};
+    return {detail::finite_or_max(a_A * std::exp(x)), s};
 }
 
 /// Saturation vapour pressure of water at temperature T (Alduchov & Eskridge), in Pa.
@@ -42,7 +42,9 @@ inline result<T> saturation_pressure_Pa(T temperature_K) noexcept {
     status s = status::ok;
     if (t < T(-40)) s = status::below_range;
     if (t > T(50)) s = status::above_range;
-    return {T(610.94) * std::exp(T(17.625) * t / (t + T(243.04))), s};
+    // Far below the fit range (t < -243.04 degC) the fit's exponent changes
+    // sign and can overflow: the value is then saturated (still below_range).
+    return {detail::finite_or_max(T(610.94) * std::exp(T(17.625) * t / (t + T(243.04)))), s};
 }
 
 /// Dry-basis mole fraction y / (1 - p_w / P) of a reading y taken in gas with

@@ -140,9 +140,26 @@ struct gas_environment {
     T mean_free_path_m;          ///< mean free path of the background gas, m
 };
 
+namespace detail {
+
+/// e with status ok when its data are usable by the flux law (check_element
+/// and a finite Knudsen number), else the placeholder with the reason.
+template <class T>
+constexpr result<element_transport<T>> checked_transport(const element_transport<T>& e,
+                                                         const element_transport<T>& placeholder) noexcept {
+    status s = check_element(e);
+    if (!finite(e.knudsen_number)) s |= status::not_finite;
+    if (s != status::ok) return {placeholder, s};
+    return {e, status::ok};
+}
+
+}  // namespace detail
+
 /// Transport data of element b in environment g (area, effective length,
 /// resistivities, Knudsen number). Status out_of_domain / not_finite for an
-/// invalid element or environment; the data are then unit placeholders.
+/// invalid element or environment, or when the data overflow or underflow
+/// (e.g. a permeability that vanishes at a very low temperature); the data are
+/// then unit placeholders.
 template <class T>
 inline result<element_transport<T>> resolve(const barrier<T>& b, const gas_environment<T>& g) noexcept {
     const element_transport<T> placeholder{T(1), T(1), T(1), T(0), T(0)};
@@ -157,14 +174,14 @@ inline result<element_transport<T>> resolve(const barrier<T>& b, const gas_envir
     switch (b.kind) {
         case barrier_kind::capillary: {
             T r_l = T(0);
-            if (b.knudsen) {
+            if (b.knudsen && b.length_m > T(0)) {  // a bare orifice (L = 0) has no bore
                 const result<T> dk = knudsen_diffusivity(b.diameter_m, g.target_molar_mass_kg_mol, g.temperature_K);
                 if (!dk.ok()) return {placeholder, dk.code};
                 r_l = (T(1) / dk.value) * (b.length_m / length);  // Knudsen acts in the bore only
             }
-            return {element_transport<T>{area, length, T(1) / g.diffusivity_m2_s, r_l,
-                                         g.mean_free_path_m / b.diameter_m},
-                    status::ok};
+            return detail::checked_transport(
+                element_transport<T>{area, length, T(1) / g.diffusivity_m2_s, r_l, g.mean_free_path_m / b.diameter_m},
+                placeholder);
         }
         case barrier_kind::porous: {
             const T geometry = b.tortuosity / b.porosity;  // D_eff = (eps / tau) D
@@ -177,7 +194,8 @@ inline result<element_transport<T>> resolve(const barrier<T>& b, const gas_envir
                 r_l = geometry / dk.value;
             }
             if (b.pore_diameter_m > T(0)) kn = g.mean_free_path_m / b.pore_diameter_m;
-            return {element_transport<T>{area, length, geometry / g.diffusivity_m2_s, r_l, kn}, status::ok};
+            return detail::checked_transport(element_transport<T>{area, length, geometry / g.diffusivity_m2_s, r_l, kn},
+                                             placeholder);
         }
         case barrier_kind::membrane:
         default: {
@@ -185,7 +203,7 @@ inline result<element_transport<T>> resolve(const barrier<T>& b, const gas_envir
                                                           b.permeability_temperature_K, g.temperature_K);
             if (!perm.ok()) return {placeholder, perm.code};
             const T r_l = T(1) / (perm.value * gas_constant_J_mol_K<T> * g.temperature_K);
-            return {element_transport<T>{area, length, T(0), r_l, T(0)}, status::ok};
+            return detail::checked_transport(element_transport<T>{area, length, T(0), r_l, T(0)}, placeholder);
         }
     }
 }

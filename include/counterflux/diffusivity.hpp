@@ -116,8 +116,9 @@ inline result<T> measured_diffusivity(T value_m2_s, T at_temperature_K, T at_pre
     s |= detail::check_positive(value_m2_s);
     if (!detail::finite(exponent)) s |= status::not_finite;
     if (s != status::ok) return {T(0), s};
-    return {value_m2_s * std::pow(temperature_K / at_temperature_K, exponent) * (at_pressure_Pa / pressure_Pa),
-            status::ok};
+    const T d = value_m2_s * std::pow(temperature_K / at_temperature_K, exponent) * (at_pressure_Pa / pressure_Pa);
+    if (!detail::finite(d)) return {T(0), status::out_of_domain};  // overflow for extreme inputs
+    return {d, status::ok};
 }
 
 /// Knudsen diffusivity D_K = (d/3) sqrt(8 R T / (pi M)) in a pore of diameter d, in m2/s.

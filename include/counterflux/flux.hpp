@@ -12,9 +12,10 @@
 //     N_A = c / (alpha r_m L) * ln[q(y2) / q(y1)]
 //         = c (y1 - y2) / (L q(y1)) * log1p(x) / x,   x = alpha r_m (y1 - y2) / q(y1),
 //
-// the second form being the one computed: it is regular at alpha -> 0, where it
-// becomes the Bosanquet form c (y1 - y2) / (L (1/D_AB + 1/D_K)), and at
-// r_m -> 0 (pure Knudsen or membrane). Its limits are the equimolar law
+// the second form being the one computed for |x| < 1/2: it is regular at
+// alpha -> 0, where it becomes the Bosanquet form c (y1 - y2) / (L (1/D_AB + 1/D_K)),
+// and at r_m -> 0 (pure Knudsen or membrane). For |x| >= 1/2 the first form is
+// well conditioned and is used (it keeps a q(y2) << q(y1) that 1 + x would round away). Its limits are the equimolar law
 // (alpha = 0, r_l = 0), the Stefan stagnant-film log law (alpha = 1, r_l = 0) and
 // the general Stefan-Maxwell log law (Bird, Stewart & Lightfoot, Transport
 // Phenomena, 2nd ed., 2002, sec. 18.2 and 18.3).
@@ -103,13 +104,22 @@ inline result<T> element_flux(const element_transport<T>& e, T total_concentrati
     if (q1 < floor) { q1 = floor; s |= status::out_of_domain; }
     if (q2 < floor) { q2 = floor; s |= status::out_of_domain; }
     const T c = total_concentration_mol_m3;
-    if (s != status::ok) {  // singular: use the exact log form on the floored q
-        if (alpha * e.inv_molecular_s_m2 == T(0)) return {T(0), s};
-        return {c / (alpha * e.inv_molecular_s_m2 * e.length_m) * std::log(q2 / q1), s};
-    }
     const T dy = y_in - y_out;
     const T x = alpha * e.inv_molecular_s_m2 * dy / q1;
-    return {c * dy / (e.length_m * q1) * detail::log1p_over_x(x), status::ok};
+    T n;
+    if (s != status::ok || !(std::fabs(x) < T(0.5))) {
+        // Singular (floored q), or q2/q1 = 1 + x far from 1: the exact log form
+        // on the ratio itself (1 + x would round away a q2 << q1).
+        if (alpha * e.inv_molecular_s_m2 == T(0)) return {T(0), s};
+        n = c / (alpha * e.inv_molecular_s_m2 * e.length_m) * std::log(q2 / q1);
+    } else {
+        n = c * dy / (e.length_m * q1) * detail::log1p_over_x(x);
+    }
+    if (!detail::finite(n)) {  // overflow for extreme inputs: saturate in the direction of the drop
+        s |= status::out_of_domain;
+        n = y_in > y_out ? detail::max_finite<T>() : -detail::max_finite<T>();
+    }
+    return {n, s};
 }
 
 /// Mole fraction at the outlet of element e carrying flux N (mol/(m2 s)) from
@@ -132,7 +142,10 @@ inline result<T> element_outlet(const element_transport<T>& e, T total_concentra
     const T z = alpha * e.inv_molecular_s_m2 * ln_c;
     if (z > detail::max_exponent<T>())  // the outlet fraction runs off to -inf (N > 0) or +inf (N < 0)
         return {ln_c > T(0) ? -detail::max_finite<T>() : detail::max_finite<T>(), status::out_of_domain};
-    return {y_in - q1 * ln_c * detail::expm1_over_x(z), status::ok};
+    const T y = y_in - q1 * ln_c * detail::expm1_over_x(z);
+    if (!detail::finite(y))  // overflow for extreme inputs: the same saturation
+        return {ln_c > T(0) ? -detail::max_finite<T>() : detail::max_finite<T>(), status::out_of_domain};
+    return {y, status::ok};
 }
 
 /// Mole fraction at the inlet of element e that drives flux N (mol/(m2 s)) to
@@ -155,7 +168,10 @@ inline result<T> element_inlet(const element_transport<T>& e, T total_concentrat
     const T z = -alpha * e.inv_molecular_s_m2 * ln_c;
     if (z > detail::max_exponent<T>())  // the inlet fraction runs off to +inf (N > 0) or -inf (N < 0)
         return {ln_c > T(0) ? detail::max_finite<T>() : -detail::max_finite<T>(), status::out_of_domain};
-    return {y_out + q2 * ln_c * detail::expm1_over_x(z), status::ok};
+    const T y = y_out + q2 * ln_c * detail::expm1_over_x(z);
+    if (!detail::finite(y))  // overflow for extreme inputs: the same saturation
+        return {ln_c > T(0) ? detail::max_finite<T>() : -detail::max_finite<T>(), status::out_of_domain};
+    return {y, status::ok};
 }
 
 /// Transport data of a free-gas element of length L with molecular
@@ -208,7 +224,8 @@ inline result<T> arrhenius_permeability(T permeability_ref, T activation_energy_
         return {T(0), status::out_of_domain};
     const T exponent = -(activation_energy_J_mol / gas_constant_J_mol_K<T>) *
                        (T(1) / temperature_K - T(1) / reference_temperature_K);
-    if (exponent > detail::max_exponent<T>()) return {permeability_ref * std::exp(detail::max_exponent<T>()), status::out_of_domain};
+    if (exponent > detail::max_exponent<T>())
+        return {detail::finite_or_max(permeability_ref * std::exp(detail::max_exponent<T>())), status::out_of_domain};
     return {permeability_ref * std::exp(exponent), status::ok};
 }
 

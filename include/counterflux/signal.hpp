@@ -109,7 +109,10 @@ template <class T, std::size_t N>
 inline result<T> sensitivity_A_per_mol_per_mol(const sensor_model<T, N>& m, T temperature_K, T pressure_Pa) noexcept {
     const result<series_transport<T, N>> st = transport_at(m, temperature_K, pressure_Pa);
     if (st.value.count == 0) return {T(0), st.code};
-    return {static_cast<T>(m.electrons) * faraday_C_mol<T> / dilute_resistance_s_per_mol(st.value), st.code};
+    const T resistance = dilute_resistance_s_per_mol(st.value);
+    // A resistance that overflows or underflows (extreme T, P or geometry) has no meaningful sensitivity.
+    if (!(detail::finite(resistance) && resistance > T(0))) return {T(0), st.code | status::out_of_domain};
+    return {detail::finite_or_max(static_cast<T>(m.electrons) * faraday_C_mol<T> / resistance), st.code};
 }
 
 /// Limiting current at mole fraction y outside the barrier and (T, P), in A.
@@ -183,7 +186,7 @@ inline result<T> span_factor(const sensor_model<T, N>& m, T temperature_K, T pre
     const result<T> s_ref = detail::reading_sensitivity(m, m.reference_temperature_K, m.reference_pressure_Pa);
     const status code = s.code | s_ref.code;
     if (!(s.value > T(0)) || !(s_ref.value > T(0))) return {T(1), code | status::out_of_domain};
-    return {s.value / s_ref.value, code};
+    return {detail::finite_or_max(s.value / s_ref.value), code};
 }
 
 /// Temperature coefficient of the span, d ln s / dT at (T, P), in 1/K
@@ -212,7 +215,9 @@ inline result<T> linearity_ratio(const sensor_model<T, N>& m, T temperature_K, T
     if (!(s.value > T(0))) return {T(1), code | status::out_of_domain};
     const T y = detail::clamp_fraction(mole_fraction, code);
     if (!(y > T(0))) return {T(1), code};
-    return {i.value / (s.value * y), code};
+    const T linear = s.value * y;
+    if (!(linear > T(0))) return {T(1), code};  // S y underflows: the dilute limit, where the ratio is 1
+    return {detail::finite_or_max(i.value / linear), code};
 }
 
 /// What the design report says of one element.
@@ -245,6 +250,7 @@ inline result<series_report<T, N>> element_reports(const sensor_model<T, N>& m, 
     if (r.count == 0) return {r, st.code};
     const T c = st.value.total_concentration_mol_m3;
     const T total = dilute_resistance_s_per_mol(st.value);
+    if (!(detail::finite(total) && total > T(0))) return {r, st.code | status::out_of_domain};  // shares undefined
     T largest = T(-1);
     for (std::size_t i = 0; i < r.count; ++i) {
         const element_transport<T>& e = st.value.elements[i];

@@ -12,7 +12,9 @@ namespace detail {
 /// True when x is neither NaN nor infinite.
 template <class T>
 constexpr bool finite(T x) noexcept {
-    return x == x && x - x == T(0);  // NaN fails the first test, +-inf the second
+    // NaN fails the first test, +-inf the others. (Not x - x == 0: inf - inf is
+    // NaN, which is not a constant expression, so finite(inf) would not be constexpr.)
+    return x == x && x != std::numeric_limits<T>::infinity() && x != -std::numeric_limits<T>::infinity();
 }
 
 /// log1p(x)/x, continuous at x = 0 (value 1); for x > -1.
@@ -43,6 +45,14 @@ constexpr T max_exponent() noexcept { return T(80); }
 /// Largest finite value of T.
 template <class T>
 constexpr T max_finite() noexcept { return std::numeric_limits<T>::max(); }
+
+/// x when finite; an overflowed x as +-max_finite with its sign; NaN as 0.
+template <class T>
+constexpr T finite_or_max(T x) noexcept {
+    if (finite(x)) return x;
+    if (!(x == x)) return T(0);
+    return x > T(0) ? max_finite<T>() : -max_finite<T>();
+}
 
 }  // namespace detail
 }  // namespace counterflux
