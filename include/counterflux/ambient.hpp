@@ -52,7 +52,7 @@ inline result<T> saturation_pressure_Pa(T temperature_K) noexcept {
 template <class T>
 inline result<T> dry_mole_fraction(T mole_fraction, T relative_humidity, T temperature_K, T pressure_Pa) noexcept {
     if (!detail::finite(mole_fraction) || !detail::finite(relative_humidity) || !detail::finite(pressure_Pa))
-        return {mole_fraction, status::not_finite};
+        return {detail::finite(mole_fraction) ? mole_fraction : T(0), status::not_finite};
     if (!(pressure_Pa > T(0))) return {mole_fraction, status::out_of_domain};
     const result<T> es = saturation_pressure_Pa(temperature_K);
     status s = es.code;
