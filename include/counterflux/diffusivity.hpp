@@ -24,6 +24,7 @@
 #include <cstdint>
 
 #include "constants.hpp"
+#include "detail/checked.hpp"
 #include "detail/math.hpp"
 #include "gases.hpp"
 #include "status.hpp"
@@ -84,7 +85,7 @@ inline result<T> fuller_diffusivity(const gas_data& a, const gas_data& b, T temp
     const T v = std::cbrt(static_cast<T>(a.diffusion_volume)) + std::cbrt(static_cast<T>(b.diffusion_volume));
     const T p_atm = pressure_Pa / standard_atmosphere_Pa<T>;
     const T d_cm2_s = T(1.00e-3) * std::pow(temperature_K, T(1.75)) * std::sqrt(inv_m) / (p_atm * v * v);
-    return {d_cm2_s * T(1.0e-4), status::ok};
+    return detail::checked(d_cm2_s * T(1.0e-4));
 }
 
 /// Chapman-Enskog D_AB of gases a and b with the Neufeld collision integral, in m2/s.
@@ -104,7 +105,7 @@ inline result<T> chapman_enskog_diffusivity(const gas_data& a, const gas_data& b
     const T d_cm2_s =
         T(0.00266) * std::pow(temperature_K, T(1.5)) / (p_bar * std::sqrt(m_ab) * sigma * sigma * omega);
     const status fit = (t_star < T(0.3) || t_star > T(100)) ? status::out_of_domain : status::ok;
-    return {d_cm2_s * T(1.0e-4), fit};
+    return detail::checked(d_cm2_s * T(1.0e-4), fit);
 }
 
 /// A measured D_ref at (T_ref, P_ref) carried to (T, P): D_ref (T/T_ref)^m (P_ref/P), in m2/s.
@@ -117,8 +118,7 @@ inline result<T> measured_diffusivity(T value_m2_s, T at_temperature_K, T at_pre
     if (!detail::finite(exponent)) s |= status::not_finite;
     if (s != status::ok) return {T(0), s};
     const T d = value_m2_s * std::pow(temperature_K / at_temperature_K, exponent) * (at_pressure_Pa / pressure_Pa);
-    if (!detail::finite(d)) return {T(0), status::out_of_domain};  // overflow for extreme inputs
-    return {d, status::ok};
+    return detail::checked(d);
 }
 
 /// Knudsen diffusivity D_K = (d/3) sqrt(8 R T / (pi M)) in a pore of diameter d, in m2/s.
@@ -129,7 +129,7 @@ inline result<T> knudsen_diffusivity(T pore_diameter_m, T molar_mass_kg_mol, T t
     s |= detail::check_positive(temperature_K);
     if (s != status::ok) return {T(0), s};
     const T mean_speed = std::sqrt(T(8) * gas_constant_J_mol_K<T> * temperature_K / (pi_v<T> * molar_mass_kg_mol));
-    return {pore_diameter_m / T(3) * mean_speed, status::ok};
+    return detail::checked(pore_diameter_m / T(3) * mean_speed);
 }
 
 /// Mean free path lambda = k_B T / (sqrt(2) pi d_m^2 P) of molecules of diameter d_m, in m.
@@ -140,7 +140,7 @@ inline result<T> mean_free_path(T molecule_diameter_m, T temperature_K, T pressu
     if (s != status::ok) return {T(0), s};
     // Computed as (k_B / d^2) first so that float does not underflow at d^2 ~ 1e-19.
     const T kd = boltzmann_J_K<T> / molecule_diameter_m / molecule_diameter_m;
-    return {kd * temperature_K / (std::sqrt(T(2)) * pi_v<T> * pressure_Pa), status::ok};
+    return detail::checked(kd * temperature_K / (std::sqrt(T(2)) * pi_v<T> * pressure_Pa));
 }
 
 /// Knudsen number Kn = lambda / d (dimensionless). Kn < 0.01 is continuum and
@@ -150,7 +150,7 @@ inline result<T> knudsen_number(T mean_free_path_m, T pore_diameter_m) noexcept 
     status s = detail::check_positive(mean_free_path_m);
     s |= detail::check_positive(pore_diameter_m);
     if (s != status::ok) return {T(0), s};
-    return {mean_free_path_m / pore_diameter_m, status::ok};
+    return detail::checked(mean_free_path_m / pore_diameter_m);
 }
 
 /// How to obtain D_AB for one gas pair: a method and its data.

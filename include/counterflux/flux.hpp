@@ -30,6 +30,7 @@
 #include <limits>
 
 #include "constants.hpp"
+#include "detail/checked.hpp"
 #include "detail/math.hpp"
 #include "status.hpp"
 
@@ -226,7 +227,7 @@ inline result<T> arrhenius_permeability(T permeability_ref, T activation_energy_
                        (T(1) / temperature_K - T(1) / reference_temperature_K);
     if (exponent > detail::max_exponent<T>())
         return {detail::finite_or_max(permeability_ref * std::exp(detail::max_exponent<T>())), status::out_of_domain};
-    return {permeability_ref * std::exp(exponent), status::ok};
+    return detail::checked(permeability_ref * std::exp(exponent));
 }
 
 /// Solution-diffusion flux through a membrane, N = Pi (p1 - p2) / delta, in

@@ -20,6 +20,7 @@
 #include <limits>
 
 #include "barrier.hpp"
+#include "detail/checked.hpp"
 #include "detail/math.hpp"
 #include "flux.hpp"
 #include "status.hpp"
@@ -142,7 +143,7 @@ inline result<T> molar_flow(const series_transport<T, N>& st, T y_outside, T y_i
     if (st.count == 1) {  // closed form
         const element_transport<T>& e = st.elements[0];
         const result<T> n = element_flux(e, c, st.alpha, y_outside, y_inner);
-        return {n.value * e.area_m2, n.code};
+        return detail::checked(n.value * e.area_m2, n.code);
     }
     if (y_outside == y_inner) return {T(0), status::ok};
     // g(F) = y_0(F) - y_outside is increasing in F; g(0) = y_inner - y_outside.
@@ -150,6 +151,7 @@ inline result<T> molar_flow(const series_transport<T, N>& st, T y_outside, T y_i
     T a = T(0);
     T ga = y_inner - y_outside;
     T b = (y_outside - y_inner) / dilute_resistance_s_per_mol(st);  // the dilute-linear flow
+    if (!detail::finite(b)) return detail::checked(b, status::out_of_domain);  // resistance underflowed
     T gb = g(b);
     int doublings = 0;
     while (gb != T(0) && (ga < T(0)) == (gb < T(0))) {  // same sign: expand outwards
@@ -157,6 +159,7 @@ inline result<T> molar_flow(const series_transport<T, N>& st, T y_outside, T y_i
         a = b;
         ga = gb;
         b = b * T(2);
+        if (!detail::finite(b)) return detail::checked(b, status::out_of_domain);
         gb = g(b);
     }
     if (gb == T(0)) return {b, status::ok};

@@ -20,6 +20,7 @@
 
 #include "barrier.hpp"
 #include "constants.hpp"
+#include "detail/checked.hpp"
 #include "detail/math.hpp"
 #include "diffusivity.hpp"
 #include "flux.hpp"
@@ -127,7 +128,7 @@ inline result<T> limiting_current_A(const sensor_model<T, N>& m, T temperature_K
     s |= st.code;
     if (st.value.count == 0) return {T(0), s};
     const result<T> f = molar_flow(st.value, y);
-    return {static_cast<T>(m.electrons) * faraday_C_mol<T> * f.value, s | f.code};
+    return detail::checked(static_cast<T>(m.electrons) * faraday_C_mol<T> * f.value, s | f.code);
 }
 
 /// Mole fraction outside the barrier that gives limiting current I at (T, P):
