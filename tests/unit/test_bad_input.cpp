@@ -88,8 +88,10 @@ TEST_CASE("bad input: unknown gases") {
     CHECK(null_name.code == cf::status::unknown_gas);
     CHECK(null_name.value == nullptr);
 
-    // Case-insensitive formulas and English names are accepted.
-    const auto co = cf::find_gas("co");
+    // Formulas are case-sensitive ("Co" is cobalt); English names fold case.
+    CHECK(cf::find_gas("co").code == cf::status::unknown_gas);
+    CHECK(cf::find_gas("Co").value == nullptr);
+    const auto co = cf::find_gas("carbon monoxide");
     REQUIRE(co.ok());
     CHECK(std::string(co.value->formula) == "CO");
     const auto o2 = cf::find_gas("oxygen");

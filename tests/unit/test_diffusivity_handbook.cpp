@@ -135,11 +135,16 @@ TEST_CASE("low-density scaling: D ~ 1/P, Fuller D ~ T^1.75") {
 TEST_CASE("Fuller at 1 atm by hand for CO in air") {
     // Poling et al. 5th ed. eq. 11-4.4 written per atm, evaluated here step by
     // step from the Table 11-1 volumes (CO 18.0, air 19.7) and molar masses.
+    // Inputs: the table's values (CO 28.010 g/mol, V 18.0; air 28.9644 g/mol, V 19.7).
+    const cf::gas_data& co = gas("CO");
+    const cf::gas_data& air = gas("air");
+    CHECK(co.diffusion_volume == 18.0f);
+    CHECK(air.diffusion_volume == 19.7f);
     const double t = 298.15;
-    const double inv_m = 1.0 / 28.010 + 1.0 / 28.9644;
-    const double v = std::cbrt(18.0) + std::cbrt(19.7);
+    const double inv_m = 1.0 / static_cast<double>(co.molar_mass_g_mol) + 1.0 / static_cast<double>(air.molar_mass_g_mol);
+    const double v = std::cbrt(static_cast<double>(co.diffusion_volume)) + std::cbrt(static_cast<double>(air.diffusion_volume));
     const double expected_cm2_s = 1.0e-3 * std::pow(t, 1.75) * std::sqrt(inv_m) / (v * v);
-    const auto d = cf::fuller_diffusivity(gas("CO"), gas("air"), t, 101325.0);
+    const auto d = cf::fuller_diffusivity(co, air, t, 101325.0);
     REQUIRE(d.ok());
     CHECK(d.value * 1.0e4 == doctest::Approx(expected_cm2_s).epsilon(1e-13));
 }

@@ -369,7 +369,8 @@ TEST_CASE_TEMPLATE("diffusivity: D_AB == D_BA exactly for every pair", T, float,
 TEST_CASE_TEMPLATE("diffusivity: Knudsen diffusivity of O2 in a 1 um pore", T, float, double) {
     const T d = T(1.0e-6);
     const T t = T(298.15);
-    const T m = T(31.998e-3);  // kg/mol, IUPAC 2 x 15.999
+    // kg/mol: IUPAC 2 x 15.999 as the float-valued table holds it.
+    const T m = static_cast<T>(31.998f) * T(1.0e-3);
     const T r = T(8.314462618);
     const T pi = T(3.14159265358979);
     const T mean_speed = std::sqrt(T(8) * r * t / (pi * m));

@@ -148,7 +148,7 @@ TEST_CASE("series: membrane + porous + capillary at alpha = 0 is 1 / sum of resi
     const double l_p = 0.5e-3, a_p = 1.0e-7, eps = 0.4, tau = 2.0, d_pore = 2.0e-6;
     const double d_c = 0.2e-3, l_c = 2.0e-3;
     const double t_ref = 293.15, p_ref = 101325.0, d_ref = 2.0e-5, m_exp = 1.75;
-    const double m_co = 28.010e-3;  // kg/mol, IUPAC C 12.011 + O 15.999
+    const double m_co = static_cast<double>(28.010f) * 1.0e-3;  // kg/mol, IUPAC C 12.011 + O 15.999, as the float table holds it
 
     cf::sensor_model<double, 4> m = sensor<double>("CO", "air", 2u, -1.0);
     m.diffusivity = cf::diffusivity_model<double>{

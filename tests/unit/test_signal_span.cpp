@@ -160,7 +160,7 @@ TEST_CASE("span: wide-bore capillary with Knudsen on is continuum to its Knudsen
     const cf::sensor_model<T, 4> m = with(co_in_air<T>(), cf::make_capillary(d, len));
     const T l_eff = len + pi_d * d / 4.0;  // pi d / 8 per end (Brown & Escombe 1900)
     const T area = pi_d * d * d / 4.0;
-    const T m_co = 28.010e-3;  // kg/mol, IUPAC C 12.011 + O 15.999
+    const T m_co = static_cast<T>(28.010f) * T(1.0e-3);  // kg/mol, IUPAC C 12.011 + O 15.999, as the float table holds it
     auto sensitivity_by_hand = [&](T t, T p, T* share) {
         const T dab = cf::fuller_diffusivity(*gas("CO"), *gas("air"), t, p).value;
         const T dk = d / 3.0 * std::sqrt(8.0 * r_exact * t / (pi_d * m_co));
@@ -213,7 +213,7 @@ TEST_CASE_TEMPLATE(
     const T bore = T(50.0e-9);
     const cf::barrier<T> elements[] = {cf::make_porous(T(1.0e-3), T(1.0e-5), T(0.3), T(3), pore),
                                        cf::make_capillary(bore, T(1.0e-3), 1000u)};
-    const double m_co = 28.010e-3;  // kg/mol, IUPAC C 12.011 + O 15.999
+    const double m_co = static_cast<double>(28.010f) * 1.0e-3;  // kg/mol, IUPAC C 12.011 + O 15.999, as the float table holds it
     for (const cf::barrier<T>& b : elements) {
         const cf::sensor_model<T, 4> m = with(base, b);
         const double d = static_cast<double>(b.kind == cf::barrier_kind::porous ? pore : bore);
