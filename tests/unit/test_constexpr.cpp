@@ -187,15 +187,15 @@ static_assert(table_self_consistent(), "each row found by formula and name, all 
 
 // Molar masses against IUPAC standard atomic weights (conventional values:
 // H 1.008, C 12.011, N 14.007, O 15.999; CIAAW 2013, from memory).
-static_assert(close(cf::find_gas("O2").value->molar_mass_g_mol, 2 * 15.999, 1e-4), "M(O2)");
-static_assert(close(cf::find_gas("CO").value->molar_mass_g_mol, 12.011 + 15.999, 1e-4), "M(CO)");
-static_assert(close(cf::find_gas("CO2").value->molar_mass_g_mol, 12.011 + 2 * 15.999, 1e-4),
+static_assert(close(static_cast<double>(cf::find_gas("O2").value->molar_mass_g_mol), 2 * 15.999, 1e-4), "M(O2)");
+static_assert(close(static_cast<double>(cf::find_gas("CO").value->molar_mass_g_mol), 12.011 + 15.999, 1e-4), "M(CO)");
+static_assert(close(static_cast<double>(cf::find_gas("CO2").value->molar_mass_g_mol), 12.011 + 2 * 15.999, 1e-4),
               "M(CO2)");
-static_assert(close(cf::find_gas("H2O").value->molar_mass_g_mol, 2 * 1.008 + 15.999, 1e-4),
+static_assert(close(static_cast<double>(cf::find_gas("H2O").value->molar_mass_g_mol), 2 * 1.008 + 15.999, 1e-4),
               "M(H2O)");
-static_assert(close(cf::find_gas("CH4").value->molar_mass_g_mol, 12.011 + 4 * 1.008, 1e-4),
+static_assert(close(static_cast<double>(cf::find_gas("CH4").value->molar_mass_g_mol), 12.011 + 4 * 1.008, 1e-4),
               "M(CH4)");
-static_assert(close(cf::find_gas("N2").value->molar_mass_g_mol, 2 * 14.007, 1e-4), "M(N2)");
+static_assert(close(static_cast<double>(cf::find_gas("N2").value->molar_mass_g_mol), 2 * 14.007, 1e-4), "M(N2)");
 static_assert(close(cf::molar_mass_kg_mol<double>(*cf::find_gas("O2").value), 2 * 15.999e-3, 1e-4),
               "kg/mol");
 static_assert(close(cf::kinetic_diameter_m<double>(*cf::find_gas("O2").value),
