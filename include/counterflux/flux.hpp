@@ -85,6 +85,44 @@ constexpr T q_floor(const element_transport<T>& e) noexcept {
 
 }  // namespace detail
 
+namespace detail {
+
+/// Status of the inputs of the flux law: the element, c > 0, and finite alpha, a, b.
+template <class T>
+constexpr status check_flux_inputs(const element_transport<T>& e, T total_concentration_mol_m3, T alpha, T a,
+                                   T b) noexcept {
+    status s = check_element(e);
+    if (!finite(total_concentration_mol_m3) || !finite(alpha) || !finite(a) || !finite(b))
+        s |= status::not_finite;
+    else if (!(total_concentration_mol_m3 > T(0)))
+        s |= status::out_of_domain;
+    return s;
+}
+
+/// Fraction downstream of y_from after the element carries flux N:
+/// y_from - q(y_from) (L N / c) expm1(z)/z with z = alpha r_m L N / c (the
+/// element_flux law solved for its second fraction). Marching upstream is the
+/// same with -N.
+template <class T>
+inline result<T> march(const element_transport<T>& e, T total_concentration_mol_m3, T alpha, T y_from,
+                       T flux_mol_m2_s) noexcept {
+    const status s = check_flux_inputs(e, total_concentration_mol_m3, alpha, y_from, flux_mol_m2_s);
+    if (s != status::ok) return {T(0), s};
+    const T q = q_of(e, alpha, y_from);
+    if (!(q > T(0))) return {y_from, status::out_of_domain};
+    const T ln_c = e.length_m * flux_mol_m2_s / total_concentration_mol_m3;  // L N / c, m2/s
+    const T z = alpha * e.inv_molecular_s_m2 * ln_c;
+    // Beyond exp's range, or on overflow, the fraction runs off to -inf
+    // (downstream of a positive flux) or +inf.
+    const T runaway = ln_c > T(0) ? -max_finite<T>() : max_finite<T>();
+    if (z > max_exponent<T>()) return {runaway, status::out_of_domain};
+    const T y = y_from - q * ln_c * expm1_over_x(z);
+    if (!finite(y)) return {runaway, status::out_of_domain};
+    return {y, status::ok};
+}
+
+}  // namespace detail
+
 /// Molar flux of A from y_in to y_out through element e, in mol/(m2 s); c is
 /// the total molar concentration P/(R T) in mol/m3. Where q(y) <= 0 (the log law
 /// is singular, e.g. pure A into stagnant B) q is floored, the large finite
@@ -92,12 +130,7 @@ constexpr T q_floor(const element_transport<T>& e) noexcept {
 template <class T>
 inline result<T> element_flux(const element_transport<T>& e, T total_concentration_mol_m3, T alpha, T y_in,
                               T y_out) noexcept {
-    status s = detail::check_element(e);
-    if (!detail::finite(total_concentration_mol_m3) || !detail::finite(alpha) || !detail::finite(y_in) ||
-        !detail::finite(y_out))
-        s |= status::not_finite;
-    else if (!(total_concentration_mol_m3 > T(0)))
-        s |= status::out_of_domain;
+    status s = detail::check_flux_inputs(e, total_concentration_mol_m3, alpha, y_in, y_out);
     if (s != status::ok) return {T(0), s};
     const T floor = detail::q_floor(e);
     T q1 = detail::q_of(e, alpha, y_in);
@@ -130,23 +163,7 @@ inline result<T> element_flux(const element_transport<T>& e, T total_concentrati
 template <class T>
 inline result<T> element_outlet(const element_transport<T>& e, T total_concentration_mol_m3, T alpha, T y_in,
                                 T flux_mol_m2_s) noexcept {
-    status s = detail::check_element(e);
-    if (!detail::finite(total_concentration_mol_m3) || !detail::finite(alpha) || !detail::finite(y_in) ||
-        !detail::finite(flux_mol_m2_s))
-        s |= status::not_finite;
-    else if (!(total_concentration_mol_m3 > T(0)))
-        s |= status::out_of_domain;
-    if (s != status::ok) return {T(0), s};
-    const T q1 = detail::q_of(e, alpha, y_in);
-    if (!(q1 > T(0))) return {y_in, status::out_of_domain};
-    const T ln_c = e.length_m * flux_mol_m2_s / total_concentration_mol_m3;  // L N / c, m2/s
-    const T z = alpha * e.inv_molecular_s_m2 * ln_c;
-    if (z > detail::max_exponent<T>())  // the outlet fraction runs off to -inf (N > 0) or +inf (N < 0)
-        return {ln_c > T(0) ? -detail::max_finite<T>() : detail::max_finite<T>(), status::out_of_domain};
-    const T y = y_in - q1 * ln_c * detail::expm1_over_x(z);
-    if (!detail::finite(y))  // overflow for extreme inputs: the same saturation
-        return {ln_c > T(0) ? -detail::max_finite<T>() : detail::max_finite<T>(), status::out_of_domain};
-    return {y, status::ok};
+    return detail::march(e, total_concentration_mol_m3, alpha, y_in, flux_mol_m2_s);
 }
 
 /// Mole fraction at the inlet of element e that drives flux N (mol/(m2 s)) to
@@ -156,23 +173,7 @@ inline result<T> element_outlet(const element_transport<T>& e, T total_concentra
 template <class T>
 inline result<T> element_inlet(const element_transport<T>& e, T total_concentration_mol_m3, T alpha, T y_out,
                                T flux_mol_m2_s) noexcept {
-    status s = detail::check_element(e);
-    if (!detail::finite(total_concentration_mol_m3) || !detail::finite(alpha) || !detail::finite(y_out) ||
-        !detail::finite(flux_mol_m2_s))
-        s |= status::not_finite;
-    else if (!(total_concentration_mol_m3 > T(0)))
-        s |= status::out_of_domain;
-    if (s != status::ok) return {T(0), s};
-    const T q2 = detail::q_of(e, alpha, y_out);
-    if (!(q2 > T(0))) return {y_out, status::out_of_domain};
-    const T ln_c = e.length_m * flux_mol_m2_s / total_concentration_mol_m3;
-    const T z = -alpha * e.inv_molecular_s_m2 * ln_c;
-    if (z > detail::max_exponent<T>())  // the inlet fraction runs off to +inf (N > 0) or -inf (N < 0)
-        return {ln_c > T(0) ? detail::max_finite<T>() : -detail::max_finite<T>(), status::out_of_domain};
-    const T y = y_out + q2 * ln_c * detail::expm1_over_x(z);
-    if (!detail::finite(y))  // overflow for extreme inputs: the same saturation
-        return {ln_c > T(0) ? detail::max_finite<T>() : -detail::max_finite<T>(), status::out_of_domain};
-    return {y, status::ok};
+    return detail::march(e, total_concentration_mol_m3, alpha, y_out, -flux_mol_m2_s);
 }
 
 /// Transport data of a free-gas element of length L with molecular
