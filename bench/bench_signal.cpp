@@ -11,18 +11,10 @@ namespace {
 
 template <class T>
 cf::sensor_model<T, 1> make_model() {
-    cf::sensor_model<T, 1> m{};
-    m.target = cf::find_gas("CO").value;
-    m.background = cf::find_gas("air").value;
-    m.diffusivity.method = cf::diffusivity_method::chapman_enskog;
-    m.diffusivity.a = m.target;
-    m.diffusivity.b = m.background;
+    cf::sensor_model<T, 1> m = cf::make_sensor<T, 1>(cf::find_gas("CO").value, cf::find_gas("air").value, 2u,
+                                                     T(-1), T(293.15), T(101325),
+                                                     cf::diffusivity_method::chapman_enskog);
     (void)cf::push(m.barriers, cf::make_capillary<T>(T(0.15e-3), T(1.2e-3)));
-    m.electrons = 2u;
-    m.flux_ratio = T(-1);
-    m.reading = cf::reading_kind::mole_fraction;
-    m.reference_temperature_K = T(293.15);
-    m.reference_pressure_Pa = T(101325);
     return m;
 }
 

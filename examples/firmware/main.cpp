@@ -19,21 +19,12 @@ using model_type = cf::sensor_model<real, max_elements>;
 // equimolar counter-diffusion through one 0.15 mm x 1.2 mm capillary, calibrated
 // at 20 C and 101.325 kPa.
 model_type make_model(cf::status& code) noexcept {
-    model_type m{};
     const auto co = cf::find_gas("CO");
     const auto air = cf::find_gas("air");
     code = co.code | air.code;
-    m.target = co.value;
-    m.background = air.value;
-    m.diffusivity.method = cf::diffusivity_method::chapman_enskog;
-    m.diffusivity.a = co.value;
-    m.diffusivity.b = air.value;
+    model_type m = cf::make_sensor<real, max_elements>(co.value, air.value, 2u, real(-1), real(293.15),
+                                                       real(101325), cf::diffusivity_method::chapman_enskog);
     code |= cf::push(m.barriers, cf::make_capillary<real>(real(0.15e-3), real(1.2e-3)));
-    m.electrons = 2u;
-    m.flux_ratio = real(-1);
-    m.reading = cf::reading_kind::mole_fraction;
-    m.reference_temperature_K = real(293.15);
-    m.reference_pressure_Pa = real(101325);
     return m;
 }
 

@@ -51,6 +51,25 @@ struct sensor_model {
     T reference_pressure_Pa;             ///< calibration pressure, Pa
 };
 
+/// A sensor model of target in background with no barrier yet (add them with push):
+/// D_AB by method from the two gases, measured-value fields 0 (set them for
+/// diffusivity_method::measured); reference temperature in K, pressure in Pa.
+template <class T, std::size_t N>
+constexpr sensor_model<T, N> make_sensor(const gas_data* target, const gas_data* background, unsigned electrons,
+                                         T flux_ratio, T reference_temperature_K, T reference_pressure_Pa,
+                                         diffusivity_method method = diffusivity_method::fuller,
+                                         reading_kind reading = reading_kind::mole_fraction) noexcept {
+    return sensor_model<T, N>{target,
+                              background,
+                              diffusivity_model<T>{method, target, background, T(0), T(0), T(0), T(0)},
+                              series<T, N>{},
+                              electrons,
+                              flux_ratio,
+                              reading,
+                              reference_temperature_K,
+                              reference_pressure_Pa};
+}
+
 /// status::ok when the model is complete and physical: known, distinct gases,
 /// electrons >= 1, 1..N valid elements, finite flux ratio, valid reference.
 template <class T, std::size_t N>

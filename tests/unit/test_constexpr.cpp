@@ -365,21 +365,47 @@ static_assert(close(cf::dilute_resistance_s_per_mol(three()),
               "resistances add in series");
 
 // ---------------------------------------------------------------------------
-// signal: model validation at compile time
+// signal: make_sensor and model validation at compile time
+constexpr const cf::gas_data* gas_co = cf::find_gas("CO").value;
+constexpr const cf::gas_data* gas_air = cf::find_gas("air").value;
+
+// make_sensor with its defaults: Fuller from the two gases, measured fields 0,
+// no barrier, a mole-fraction reading.
+constexpr cf::sensor_model<double, 2> fresh =
+    cf::make_sensor<double, 2>(gas_co, gas_air, 2u, cf::equimolar_flux_ratio<double>, 293.15, 101325.0);
+static_assert(fresh.target == gas_co && fresh.background == gas_air, "gases as given");
+static_assert(fresh.diffusivity.method == cf::diffusivity_method::fuller, "Fuller by default");
+static_assert(fresh.diffusivity.a == gas_co && fresh.diffusivity.b == gas_air,
+              "the diffusivity model names the same two gases");
+static_assert(fresh.diffusivity.measured_m2_s == 0.0 && fresh.diffusivity.measured_temperature_K == 0.0 &&
+                  fresh.diffusivity.measured_pressure_Pa == 0.0 && fresh.diffusivity.measured_exponent == 0.0,
+              "measured fields 0");
+static_assert(fresh.barriers.count == 0, "no barrier yet");
+static_assert(fresh.electrons == 2u && fresh.flux_ratio == -1.0, "electrons and flux ratio as given");
+static_assert(fresh.reading == cf::reading_kind::mole_fraction, "mole fraction by default");
+static_assert(fresh.reference_temperature_K == 293.15 && fresh.reference_pressure_Pa == 101325.0,
+              "reference condition as given");
+static_assert(cf::validate(fresh) == cf::status::out_of_domain, "not valid before a barrier is pushed");
+
+// Every argument given, in float.
+constexpr cf::sensor_model<float, 3> fresh_f = cf::make_sensor<float, 3>(
+    cf::find_gas("O2").value, cf::find_gas("N2").value, 4u, cf::stagnant_flux_ratio<float>, 298.15f, 95000.0f,
+    cf::diffusivity_method::chapman_enskog, cf::reading_kind::partial_pressure);
+static_assert(fresh_f.diffusivity.method == cf::diffusivity_method::chapman_enskog, "method as given");
+static_assert(fresh_f.diffusivity.a == cf::find_gas("O2").value && fresh_f.diffusivity.b == cf::find_gas("N2").value,
+              "gases of the diffusivity model");
+static_assert(fresh_f.reading == cf::reading_kind::partial_pressure, "reading as given");
+static_assert(fresh_f.electrons == 4u && fresh_f.flux_ratio == 0.0f && fresh_f.barriers.count == 0,
+              "electrons, flux ratio, no barrier");
+static_assert(fresh_f.reference_temperature_K == 298.15f && fresh_f.reference_pressure_Pa == 95000.0f,
+              "float reference condition");
+
 constexpr cf::sensor_model<double, 2> co_sensor(const char* target, const char* background,
                                                 unsigned electrons) {
-    cf::sensor_model<double, 2> m{};
-    m.target = cf::find_gas(target).value;
-    m.background = cf::find_gas(background).value;
-    m.diffusivity = cf::diffusivity_model<double>{
-        cf::diffusivity_method::fuller, m.target, m.background, 0.0, 0.0, 0.0, 0.0};
-    m.barriers.count = 0;
+    cf::sensor_model<double, 2> m = cf::make_sensor<double, 2>(
+        cf::find_gas(target).value, cf::find_gas(background).value, electrons,
+        cf::equimolar_flux_ratio<double>, 293.15, 101325.0);
     cf::push(m.barriers, cap);
-    m.electrons = electrons;
-    m.flux_ratio = cf::equimolar_flux_ratio<double>;
-    m.reading = cf::reading_kind::mole_fraction;
-    m.reference_temperature_K = 293.15;
-    m.reference_pressure_Pa = 101325.0;
     return m;
 }
 static_assert(cf::validate(co_sensor("CO", "air", 2u)) == cf::status::ok, "a valid sensor");
@@ -407,4 +433,10 @@ TEST_CASE("constexpr: the compile-time checks also hold at run time") {
     CHECK(cf::has(s, cf::status::above_range));
     CHECK_FALSE(cf::has(s, cf::status::below_range));
     CHECK(two_elements().count == 2);
+    // make_sensor at run time, from a gas looked up at run time.
+    const cf::sensor_model<double, 2> m =
+        cf::make_sensor<double, 2>(g.value, gas_air, 4u, cf::stagnant_flux_ratio<double>, 293.15, 101325.0);
+    CHECK(m.diffusivity.a == g.value);
+    CHECK(m.barriers.count == 0);
+    CHECK(cf::validate(co_sensor("CO", "air", 2u)) == cf::status::ok);
 }

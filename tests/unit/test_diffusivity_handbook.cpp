@@ -23,7 +23,10 @@
 #include <counterflux/diffusivity.hpp>
 #include <counterflux/gases.hpp>
 
+#include "support.hpp"
+
 namespace cf = counterflux;
+using namespace counterflux_test;
 
 namespace {
 
@@ -66,12 +69,6 @@ constexpr handbook_row rows[] = {
 
 constexpr double fuller_average_error = 0.05;          // Poling et al. 5th ed., from memory
 constexpr double chapman_enskog_average_error = 0.07;  // Poling et al. 5th ed., from memory
-
-const cf::gas_data& gas(const char* name) {
-    const auto r = cf::find_gas(name);
-    REQUIRE(r.ok());
-    return *r.value;
-}
 
 template <class T>
 void check_method(bool fuller, double average_error) {

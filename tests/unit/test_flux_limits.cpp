@@ -8,7 +8,6 @@
 #include <cmath>
 #include <cstddef>
 #include <limits>
-#include <type_traits>
 
 #include <counterflux/constants.hpp>
 #include <counterflux/diffusivity.hpp>
@@ -16,32 +15,12 @@
 #include <counterflux/gases.hpp>
 #include <counterflux/units.hpp>
 
+#include "support.hpp"
+
 namespace cf = counterflux;
+using namespace counterflux_test;
 
 namespace {
-
-// Tolerance for type T: d for double, f for float.
-template <class T>
-constexpr T pick(double d, float f) noexcept {
-    if constexpr (std::is_same<T, float>::value) {
-        (void)d;
-        return f;
-    } else {
-        (void)f;
-        return static_cast<T>(d);
-    }
-}
-
-template <class T>
-T rel_diff(T a, T b) {
-    return std::fabs(a - b) / std::fabs(b);
-}
-
-const cf::gas_data& gas(const char* name) {
-    const auto r = cf::find_gas(name);
-    REQUIRE(r.ok());
-    return *r.value;
-}
 
 // A typical condition: 25 degC, 1 atm; R from physics.md sec. 0.
 template <class T>

@@ -10,63 +10,15 @@
 #include <limits>
 #include <sstream>
 #include <string>
-#include <type_traits>
 
 #include <counterflux/counterflux.hpp>
 
+#include "support.hpp"
+
 namespace cf = counterflux;
+using namespace counterflux_test;
 
 namespace {
-
-template <class T>
-constexpr T pick(double d, float f) noexcept {
-    if constexpr (std::is_same<T, float>::value) {
-        (void)d;
-        return f;
-    } else {
-        (void)f;
-        return static_cast<T>(d);
-    }
-}
-
-template <class T>
-T rel_diff(T a, T b) {
-    return std::fabs(a - b) / std::fabs(b);
-}
-
-const cf::gas_data* gas(const char* name) {
-    const auto r = cf::find_gas(name);
-    REQUIRE(r.ok());
-    return r.value;
-}
-
-// R = N_A k_B and F = N_A e, exact (SI 2019; physics.md sec. 0).
-constexpr double r_exact = 6.02214076e23 * 1.380649e-23;
-constexpr double f_exact = 6.02214076e23 * 1.602176634e-19;
-constexpr double pi_d = 3.14159265358979323846;
-
-template <class T>
-cf::sensor_model<T, 4> sensor(const char* target, const char* background, unsigned electrons,
-                              T flux_ratio) {
-    cf::sensor_model<T, 4> m{};
-    m.target = gas(target);
-    m.background = gas(background);
-    m.diffusivity = cf::diffusivity_model<T>{
-        cf::diffusivity_method::fuller, m.target, m.background, T(0), T(0), T(0), T(0)};
-    m.barriers.count = 0;
-    m.electrons = electrons;
-    m.flux_ratio = flux_ratio;
-    m.reading = cf::reading_kind::mole_fraction;
-    m.reference_temperature_K = T(293.15);
-    m.reference_pressure_Pa = T(101325);
-    return m;
-}
-
-template <class T>
-cf::sensor_model<T, 4> add(cf::sensor_model<T, 4> m, const cf::barrier<T>& b) {
-    REQUIRE(cf::push(m.barriers, b) == cf::status::ok);
-    return m;
-}
 
 template <class T>
 cf::series_transport<T, 4> transport(const cf::sensor_model<T, 4>& m, T t, T p) {
@@ -345,37 +297,30 @@ round_trip_worst round_trips(const cf::sensor_model<float, 4>& m, float y_lo, fl
     return worst;
 }
 
+// Both round trips of m from 1 ppm to y_hi, each within a relative error of 1e-6.
+void check_round_trips(const cf::sensor_model<float, 4>& m, float y_hi) {
+    const float tol = 1.0e-6f;
+    const round_trip_worst w = round_trips(m, 1.0e-6f, y_hi);
+    MESSAGE("worst relative error: fraction " << w.fraction << ", current " << w.current);
+    CHECK(w.fraction <= tol);
+    CHECK(w.current <= tol);
+}
+
 }  // namespace
 
 TEST_CASE("series: float round trips current <-> concentration, dust filter + capillary") {
     const cf::barrier<float> dust = cf::make_porous(1.0e-3f, 2.0e-5f, 0.5f, 1.5f, 20.0e-6f);
     const cf::barrier<float> cap = cf::make_capillary(0.1e-3f, 1.5e-3f);
-    const float tol = 1.0e-6f;
     SUBCASE("equimolar CO in air") {
-        cf::sensor_model<float, 4> m =
-            sensor<float>("CO", "air", 2u, cf::equimolar_flux_ratio<float>);
-        m = add(add(m, dust), cap);
-        const round_trip_worst w = round_trips(m, 1.0e-6f, 1.0f);
-        MESSAGE("worst relative error: fraction " << w.fraction << ", current " << w.current);
-        CHECK(w.fraction <= tol);
-        CHECK(w.current <= tol);
+        check_round_trips(add(add(sensor<float>("CO", "air", 2u, cf::equimolar_flux_ratio<float>), dust), cap),
+                          1.0f);
     }
     SUBCASE("r = -2 (alpha = -1)") {
-        cf::sensor_model<float, 4> m = sensor<float>("CO", "air", 2u, -2.0f);
-        m = add(add(m, dust), cap);
-        const round_trip_worst w = round_trips(m, 1.0e-6f, 1.0f);
-        MESSAGE("worst relative error: fraction " << w.fraction << ", current " << w.current);
-        CHECK(w.fraction <= tol);
-        CHECK(w.current <= tol);
+        check_round_trips(add(add(sensor<float>("CO", "air", 2u, -2.0f), dust), cap), 1.0f);
     }
     SUBCASE("stagnant O2 in N2, Knudsen on") {
-        cf::sensor_model<float, 4> m =
-            sensor<float>("O2", "N2", 4u, cf::stagnant_flux_ratio<float>);
-        m = add(add(m, dust), cap);
-        const round_trip_worst w = round_trips(m, 1.0e-6f, 0.99f);
-        MESSAGE("worst relative error: fraction " << w.fraction << ", current " << w.current);
-        CHECK(w.fraction <= tol);
-        CHECK(w.current <= tol);
+        check_round_trips(add(add(sensor<float>("O2", "N2", 4u, cf::stagnant_flux_ratio<float>), dust), cap),
+                          0.99f);
     }
 }
 
@@ -498,8 +443,8 @@ std::string element_text(const cf::element_transport<T>& e) {
 template <class T>
 void sweep(const value_grid<T>& v) {
     const bool fin = v.finite_required;
-    const cf::gas_data& co = *gas("CO");
-    const cf::gas_data& air = *gas("air");
+    const cf::gas_data& co = gas("CO");
+    const cf::gas_data& air = gas("air");
     const std::size_t n = v.size;
     const T* x = v.values;
 
