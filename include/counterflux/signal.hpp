@@ -169,6 +169,18 @@ inline result<T> mole_fraction_from_current(const sensor_model<T, N>& m, T tempe
     return {clamped, s};
 }
 
+/// The reading the sensor reports for limiting current I at (T, P): the mole
+/// fraction (mol/mol) or, for a partial-pressure sensor, y P (Pa). Flags as
+/// mole_fraction_from_current.
+template <class T, std::size_t N>
+inline result<T> reading_from_current(const sensor_model<T, N>& m, T temperature_K, T pressure_Pa,
+                                      T current_A) noexcept {
+    const result<T> y = mole_fraction_from_current(m, temperature_K, pressure_Pa, current_A);
+    if (m.reading == reading_kind::partial_pressure && detail::finite(pressure_Pa) && pressure_Pa > T(0))
+        return detail::checked(y.value * pressure_Pa, y.code);
+    return y;
+}
+
 namespace detail {
 
 /// Central-difference step for d ln s / dx at x: x * eps^(1/3).

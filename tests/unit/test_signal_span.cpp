@@ -318,3 +318,23 @@ TEST_CASE("signal: linearity ratio of a single capillary without Knudsen") {
                         (std::log(1.0f / (1.0f - yf)) / yf) -
                     1.0f) <= 2.0e-6f);
 }
+
+TEST_CASE_TEMPLATE("reading_from_current reports a fraction or a partial pressure", T, float, double) {
+    // y from the inverse; a partial-pressure sensor reports p = y P (Dalton's law).
+    namespace ct = counterflux_test;
+    const cf::gas_data& o2 = ct::gas("O2");
+    const cf::gas_data& n2 = ct::gas("N2");
+    auto m = cf::make_sensor<T, 2>(&o2, &n2, 4u, cf::stagnant_flux_ratio<T>, T(298.15), T(101325));
+    REQUIRE(cf::push(m.barriers, cf::make_capillary(T(0.05e-3), T(1.0e-3))) == cf::status::ok);
+    const T t = T(298.15);
+    const T p = T(83500);
+    const cf::result<T> i = cf::limiting_current_A(m, t, p, T(0.2095));
+    REQUIRE(i.ok());
+    const cf::result<T> as_fraction = cf::reading_from_current(m, t, p, i.value);
+    CHECK(as_fraction.ok());
+    CHECK(as_fraction.value == doctest::Approx(T(0.2095)).epsilon(ct::pick<T>(1e-12, 1e-5f)));
+    m.reading = cf::reading_kind::partial_pressure;
+    const cf::result<T> as_pressure = cf::reading_from_current(m, t, p, i.value);
+    CHECK(as_pressure.ok());
+    CHECK(as_pressure.value == doctest::Approx(T(0.2095) * p).epsilon(ct::pick<T>(1e-12, 1e-5f)));
+}
