@@ -75,7 +75,8 @@ constexpr sensor_model<T, N> make_sensor(const gas_data* target, const gas_data*
 template <class T, std::size_t N>
 constexpr status validate(const sensor_model<T, N>& m) noexcept {
     if (m.target == nullptr || m.background == nullptr) return status::unknown_gas;
-    if (m.target == m.background) return status::out_of_domain;
+    if (m.target == m.background || detail::string_equal(m.target->formula, m.background->formula, false))
+        return status::out_of_domain;
     if (m.electrons < 1u || m.barriers.count < 1 || m.barriers.count > N) return status::out_of_domain;
     if (!detail::finite(m.flux_ratio)) return status::not_finite;
     status s = detail::check_condition(m.reference_temperature_K, m.reference_pressure_Pa);
@@ -83,7 +84,8 @@ constexpr status validate(const sensor_model<T, N>& m) noexcept {
     return s;
 }
 
-/// The model's barrier series resolved at (T, P).
+/// The model's barrier series resolved at (T, P); count 0 (and the reason in
+/// the flags) when the model, the condition or an element cannot be resolved.
 template <class T, std::size_t N>
 inline result<series_transport<T, N>> transport_at(const sensor_model<T, N>& m, T temperature_K,
                                                    T pressure_Pa) noexcept {
@@ -104,11 +106,14 @@ inline result<series_transport<T, N>> transport_at(const sensor_model<T, N>& m, 
     st.total_concentration_mol_m3 = pressure_Pa / (gas_constant_J_mol_K<T> * temperature_K);
     st.alpha = alpha_from_flux_ratio(m.flux_ratio);
     st.count = m.barriers.count;
+    bool resolved = true;
     for (std::size_t i = 0; i < st.count; ++i) {
         const result<element_transport<T>> e = resolve(m.barriers.elements[i], env);
         st.elements[i] = e.value;
         s |= e.code;
+        resolved = resolved && e.ok();
     }
+    if (!resolved) st.count = 0;  // an unresolved element leaves a placeholder: report no series at all
     return {st, s};
 }
 
