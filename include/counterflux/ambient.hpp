@@ -49,18 +49,25 @@ inline result<T> saturation_pressure_Pa(T temperature_K) noexcept {
 
 /// Dry-basis mole fraction y / (1 - p_w / P) of a reading y taken in gas with
 /// water partial pressure p_w (relative humidity 0..1 times e_s) at total P.
+/// y and the result are clamped to [0, 1], relative humidity to [0, 1], with
+/// below_range / above_range.
 template <class T>
 inline result<T> dry_mole_fraction(T mole_fraction, T relative_humidity, T temperature_K, T pressure_Pa) noexcept {
     if (!detail::finite(mole_fraction) || !detail::finite(relative_humidity) || !detail::finite(pressure_Pa))
-        return {detail::finite(mole_fraction) ? mole_fraction : T(0), status::not_finite};
-    if (!(pressure_Pa > T(0))) return {mole_fraction, status::out_of_domain};
+        return {detail::finite(mole_fraction) ? detail::clamp(mole_fraction, T(0), T(1)) : T(0), status::not_finite};
+    status s = status::ok;
+    const T y = detail::clamp(mole_fraction, T(0), T(1));
+    if (y != mole_fraction) s |= mole_fraction < T(0) ? status::below_range : status::above_range;
+    if (!(pressure_Pa > T(0))) return {y, s | status::out_of_domain};
     const result<T> es = saturation_pressure_Pa(temperature_K);
-    status s = es.code;
+    s |= es.code;
     const T rh = detail::clamp(relative_humidity, T(0), T(1));
     if (rh != relative_humidity) s |= relative_humidity < T(0) ? status::below_range : status::above_range;
     const T water = rh * es.value / pressure_Pa;
-    if (!(water < T(1))) return {mole_fraction, s | status::out_of_domain};
-    return {mole_fraction / (T(1) - water), s};
+    if (!(water < T(1))) return {y, s | status::out_of_domain};
+    const T dry = y / (T(1) - water);
+    if (dry > T(1)) return {T(1), s | status::above_range};  // more water than the reading leaves room for
+    return {dry, s};
 }
 
 /// ISO 2533 standard-atmosphere pressure at altitude h (m, troposphere 0 .. 11000), in Pa.

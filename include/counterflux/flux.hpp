@@ -102,7 +102,7 @@ constexpr status check_flux_inputs(const element_transport<T>& e, T total_concen
 /// Fraction downstream of y_from after the element carries flux N:
 /// y_from - q(y_from) (L N / c) expm1(z)/z with z = alpha r_m L N / c (the
 /// element_flux law solved for its second fraction). Marching upstream is the
-/// same with -N.
+/// same with -N. above_range when the fraction has saturated at its asymptote.
 template <class T>
 inline result<T> march(const element_transport<T>& e, T total_concentration_mol_m3, T alpha, T y_from,
                        T flux_mol_m2_s) noexcept {
@@ -118,6 +118,9 @@ inline result<T> march(const element_transport<T>& e, T total_concentration_mol_
     if (z > max_exponent<T>()) return {runaway, status::out_of_domain};
     const T y = y_from - q * ln_c * expm1_over_x(z);
     if (!finite(y)) return {runaway, status::out_of_domain};
+    // exp(z) below the precision of T: the fraction sits at its asymptote
+    // (r_m + r_l)/(alpha r_m) and no longer tells one flux from a larger one.
+    if (z < saturation_exponent<T>()) return {y, status::above_range};
     return {y, status::ok};
 }
 
@@ -159,7 +162,8 @@ inline result<T> element_flux(const element_transport<T>& e, T total_concentrati
 /// Mole fraction at the outlet of element e carrying flux N (mol/(m2 s)) from
 /// inlet fraction y_in: the inverse of element_flux in y_out. Flags
 /// out_of_domain (value -max or +max, the side the fraction runs off to) when
-/// the flux cannot be carried.
+/// the flux cannot be carried; above_range when the fraction has saturated at
+/// its asymptote (alpha < 0).
 template <class T>
 inline result<T> element_outlet(const element_transport<T>& e, T total_concentration_mol_m3, T alpha, T y_in,
                                 T flux_mol_m2_s) noexcept {
@@ -168,8 +172,10 @@ inline result<T> element_outlet(const element_transport<T>& e, T total_concentra
 
 /// Mole fraction at the inlet of element e that drives flux N (mol/(m2 s)) to
 /// outlet fraction y_out: the inverse of element_flux in y_in. For alpha > 0
-/// the value tends to (r_m + r_l)/(alpha r_m) as N grows. Flags out_of_domain
-/// (value +max or -max) when no finite inlet fraction drives the flux.
+/// the value tends to (r_m + r_l)/(alpha r_m) as N grows, and above_range is
+/// set once it has saturated there (larger fluxes give the same fraction).
+/// Flags out_of_domain (value +max or -max) when no finite inlet fraction
+/// drives the flux.
 template <class T>
 inline result<T> element_inlet(const element_transport<T>& e, T total_concentration_mol_m3, T alpha, T y_out,
                                T flux_mol_m2_s) noexcept {

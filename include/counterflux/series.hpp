@@ -111,7 +111,7 @@ inline series_profile<T, N> profile_for_flow(const series_transport<T, N>& st, T
         p.code |= r.code;
         y = r.value;
         p.fractions[k] = y;
-        if (r.code != status::ok) {  // saturated: every outer interface is beyond range too
+        if (has(r.code, status::out_of_domain)) {  // ran off: every outer interface is beyond range too
             for (std::size_t j = 0; j < k; ++j) p.fractions[j] = y;
             break;
         }
@@ -146,6 +146,13 @@ inline result<T> molar_flow(const series_transport<T, N>& st, T y_outside, T y_i
         return detail::checked(n.value * e.area_m2, n.code);
     }
     if (y_outside == y_inner) return {T(0), status::ok};
+    // The log law is singular where q(y) reaches 0 (pure A into stagnant B
+    // without Knudsen resistance): no finite flow reaches such an end fraction.
+    const element_transport<T>& outer = st.elements[0];
+    const element_transport<T>& inner = st.elements[st.count - 1];
+    if (detail::q_of(outer, st.alpha, y_outside) <= detail::q_floor(outer) ||
+        detail::q_of(inner, st.alpha, y_inner) <= detail::q_floor(inner))
+        return {y_outside > y_inner ? detail::max_finite<T>() : -detail::max_finite<T>(), status::out_of_domain};
     // g(F) = y_0(F) - y_outside is increasing in F; g(0) = y_inner - y_outside.
     auto g = [&](T f) noexcept { return outer_fraction_for_flow(st, f, y_inner).value - y_outside; };
     T a = T(0);

@@ -167,9 +167,12 @@ inline result<T> mole_fraction_from_current(const sensor_model<T, N>& m, T tempe
     if (st.value.count == 0) return {T(0), s};
     const T flow = current_A / (static_cast<T>(m.electrons) * faraday_C_mol<T>);
     const result<T> y = outer_fraction_for_flow(st.value, flow);
-    // A saturated march (no finite fraction drives this current) returns +-max
-    // flagged out_of_domain; the clamp below turns it into an edge reading.
-    if (!has(y.code, status::out_of_domain)) s |= y.code;
+    // A march that ran off (no finite fraction drives this current) is an edge
+    // reading: above the range for a positive current, below for a negative one.
+    if (has(y.code, status::out_of_domain))
+        s |= y.value > T(0) ? status::above_range : status::below_range;
+    else
+        s |= y.code;
     const T clamped = detail::clamp_fraction(y.value, s);
     return {clamped, s};
 }

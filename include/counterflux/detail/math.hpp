@@ -6,6 +6,10 @@
 #include <cmath>
 #include <limits>
 
+#if defined(__FINITE_MATH_ONLY__) && __FINITE_MATH_ONLY__
+#error "counterflux needs IEEE NaN and infinity checks: do not build it with -ffast-math / -ffinite-math-only"
+#endif
+
 namespace counterflux {
 namespace detail {
 
@@ -41,6 +45,13 @@ constexpr T clamp(T x, T lo, T hi) noexcept {
 /// Largest argument passed to exp before a result is flagged (exp(80) ~ 5.5e34 fits float).
 template <class T>
 constexpr T max_exponent() noexcept { return T(80); }
+
+/// ln of the precision of T (about -16.6 for float, -36.7 for double): below
+/// it, exp(z) no longer changes 1 + exp(z).
+template <class T>
+constexpr T saturation_exponent() noexcept {
+    return static_cast<T>(std::numeric_limits<T>::digits) * T(-0.6931471805599453);
+}
 
 /// Largest finite value of T.
 template <class T>
