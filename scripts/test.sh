@@ -55,12 +55,30 @@ double_helpers() {
   fi
 }
 
+float_path_check() {
+  # Every public function instantiated for float (tests/header_checks/instantiate_float.cpp)
+  # must reference no software double helper on the Cortex-M4F: the float path stays float.
+  local obj refs
+  obj="$(find "$1" -name 'instantiate_float.cpp.obj' | head -n 1)"
+  if [ -z "$obj" ]; then
+    echo "-- float-path check: instantiate_float.cpp.obj not found under $1" >&2
+    return 1
+  fi
+  refs="$(arm-none-eabi-nm -u "$obj" | awk '{print $2}' | grep -E '^__aeabi_(d|f2d|l2d|ul2d|i2d|ui2d)' || true)"
+  if [ -n "$refs" ]; then
+    echo "-- float-path check FAILED: the float API calls software double helpers:" $refs >&2
+    return 1
+  fi
+  echo "-- float-path check: every public function in float, no software double helpers"
+}
+
 for preset in arm-m4f arm-m0plus; do
   step "$preset: cross-compile headers and the firmware example (arm-none-eabi)"
   cmake --preset "$preset"
   cmake --build --preset "$preset" -j "$jobs"
   size_report "build/$preset/examples/firmware/counterflux_firmware_example.elf"
   double_helpers "build/$preset" "$preset"
+  if [ "$preset" = arm-m4f ]; then float_path_check "build/$preset"; fi
 done
 
 step "bench: smoke run"
