@@ -219,7 +219,9 @@ inline result<T> log_slope(const sensor_model<T, N>& m, T t_hi, T p_hi, T t_lo, 
 }  // namespace detail
 
 /// Span factor s(T, P) = S(T, P) / S(T_ref, P_ref), times P_ref / P when the
-/// reading is a partial pressure; dimensionless.
+/// reading is a partial pressure; dimensionless. When either sensitivity cannot
+/// be computed the value is 1 (apply no correction) with out_of_domain: a
+/// neutral factor a firmware caller can divide by safely, never data.
 template <class T, std::size_t N>
 inline result<T> span_factor(const sensor_model<T, N>& m, T temperature_K, T pressure_Pa) noexcept {
     const result<T> s = detail::reading_sensitivity(m, temperature_K, pressure_Pa);
@@ -245,7 +247,8 @@ inline result<T> pressure_coefficient_per_Pa(const sensor_model<T, N>& m, T temp
 }
 
 /// Linearity ratio I(y) / (S y) at (T, P): 1 for a linear cell, 1.1221 for a
-/// stagnant-film capillary at 20.95 % O2; 1 at y = 0.
+/// stagnant-film capillary at 20.95 % O2; 1 at y = 0. When the sensitivity
+/// cannot be computed the value is the neutral 1 with out_of_domain.
 template <class T, std::size_t N>
 inline result<T> linearity_ratio(const sensor_model<T, N>& m, T temperature_K, T pressure_Pa,
                                  T mole_fraction) noexcept {
