@@ -62,7 +62,8 @@ const std::vector<expected_unit> contract = {
     {"1 nA", quantity_kind::current, 1.0e-9},
     {"1 m2/s", quantity_kind::diffusivity, 1.0},
     {"1 cm2/s", quantity_kind::diffusivity, 1.0e-4},
-    {"1 Barrer", quantity_kind::permeability, 3.346e-16},  // physics notes: 1 Barrer = 3.346e-16 mol/(m s Pa)
+    // 1 Barrer = 1e-10 cm3(STP) cm/(cm2 s cmHg) by definition = 3.346e-16 mol/(m s Pa)
+    {"1 Barrer", quantity_kind::permeability, 3.346e-16},
     {"1 mol/(m s Pa)", quantity_kind::permeability, 1.0},
     {"1 J/mol", quantity_kind::energy, 1.0},
     {"1 kJ/mol", quantity_kind::energy, 1000.0},

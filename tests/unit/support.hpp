@@ -46,7 +46,7 @@ inline const cf::gas_data& gas(const char* name) {
     return *r.value;
 }
 
-// R = N_A k_B and F = N_A e, exact (SI 2019; physics.md sec. 0).
+// R = N_A k_B and F = N_A e, exact (SI 2019, BIPM 9th ed.; docs/models.md sec. 0).
 inline constexpr double r_exact = 6.02214076e23 * 1.380649e-23;
 inline constexpr double f_exact = 6.02214076e23 * 1.602176634e-19;
 inline constexpr double pi_d = 3.14159265358979323846;

@@ -105,9 +105,9 @@ static_assert(close(cf::gas_constant_J_mol_K<double>, 6.02214076e23 * 1.380649e-
 static_assert(close(cf::faraday_C_mol<double>, 6.02214076e23 * 1.602176634e-19, 1e-15),
               "F = N_A e");
 static_assert(close(cf::gas_constant_J_mol_K<double>, 8.314462618, 1e-9),
-              "R as quoted in physics.md sec. 0");
+              "R as quoted to 10 digits (SI 2019; docs/models.md sec. 0)");
 static_assert(close(cf::faraday_C_mol<double>, 96485.33212, 1e-10),
-              "F as quoted in physics.md sec. 0");
+              "F as quoted to 10 digits (SI 2019; docs/models.md sec. 0)");
 static_assert(cf::standard_atmosphere_Pa<double> == 101325.0, "standard atmosphere (ISO 2533)");
 static_assert(cf::ice_point_K<double> == 273.15, "0 degC = 273.15 K by definition");
 static_assert(close(cf::pi_v<double>, pi, 1e-16), "pi");
@@ -134,12 +134,13 @@ static_assert(close(cf::to_nA_per_ppm(2.5e-3), 2.5, 1e-15), "2.5 mA/(mol/mol) = 
 // Molar volume of an ideal gas at 273.15 K, 101325 Pa: 22.413969... L/mol
 // (CODATA 2018 recommended value 22.413 969 54 L/mol, from memory).
 static_assert(close(1.0 / cf::mol_per_cm3_stp<double>, 22413.96954, 1e-9), "molar volume at STP");
-// 1 Barrer = 3.346e-16 mol/(m s Pa) (physics.md sec. 1; 4 significant digits).
+// 1 Barrer = 3.346e-16 mol/(m s Pa) (from its definition 1e-10 cm3(STP) cm /
+// (cm2 s cmHg); 4 significant digits).
 static_assert(close(cf::barrer_mol_m_s_Pa<double>, 3.346e-16, 1e-3), "1 Barrer in SI");
 
 // ---------------------------------------------------------------------------
 // gases: find_gas at compile time
-static_assert(cf::gas_count >= 16, "physics.md sec. 3 asks for at least 16 gases");
+static_assert(cf::gas_count >= 16, "docs/models.md sec. 3 lists at least 16 gases");
 static_assert(cf::find_gas("O2").ok(), "O2 is in the table");
 static_assert(cf::find_gas("O2").value == cf::find_gas("oxygen").value,
               "formula and name find the same row");
@@ -159,7 +160,7 @@ static_assert(same_text(cf::find_gas("NO").value->formula, "NO"), "NO is nitric 
 static_assert(cf::find_gas("no2").value == nullptr, "no2 is not a formula");
 static_assert(same_text(cf::find_gas("Nitrogen Dioxide").value->formula, "NO2"), "names fold case");
 
-// Every gas physics.md sec. 3 requires is present.
+// Every gas docs/models.md sec. 3 lists is present.
 constexpr const char* required_gases[] = {"O2",  "N2", "air", "CO",  "CO2", "H2",  "H2O", "CH4",
                                           "H2S", "NO", "NO2", "SO2", "NH3", "Cl2", "He",  "Ar"};
 constexpr bool all_required_present() {
@@ -230,8 +231,9 @@ static_assert(cf::alpha_from_flux_ratio(cf::equimolar_flux_ratio<double>) == 0.0
               "equimolar: alpha = 0");
 static_assert(cf::alpha_from_flux_ratio(cf::stagnant_flux_ratio<double>) == 1.0,
               "stagnant: alpha = 1");
-static_assert(cf::alpha_from_flux_ratio(-2.0) == -1.0, "r = -2: alpha = -1 (physics.md sec. 1)");
-// Bosanquet: 1/D = 1/D_AB + 1/D_K (physics.md sec. 1).
+static_assert(cf::alpha_from_flux_ratio(-2.0) == -1.0,
+              "r = -2: alpha = -1 (docs/models.md sec. 1)");
+// Bosanquet: 1/D = 1/D_AB + 1/D_K (Mason & Malinauskas 1983; docs/models.md sec. 1).
 static_assert(cf::bosanquet_diffusivity(2.0, 2.0) == 1.0, "two equal resistances in series");
 static_assert(close(cf::bosanquet_diffusivity(1.0e-5, 4.0e-5), 1.0 / (1.0 / 1.0e-5 + 1.0 / 4.0e-5),
                     1e-15),
@@ -259,12 +261,13 @@ static_assert(cap.kind == cf::barrier_kind::capillary && cap.count == 1u && cap.
                   cap.knudsen,
               "defaults: one bore, end correction and Knudsen on");
 static_assert(cf::validate(cap) == cf::status::ok, "a valid capillary");
-// Area of n bores: n pi d^2 / 4 (physics.md sec. 2).
+// Area of n bores: n pi d^2 / 4 (docs/models.md sec. 2).
 static_assert(close(cf::barrier_area_m2(cap), pi* bore* bore / 4.0, 1e-15), "capillary area");
 static_assert(close(cf::barrier_area_m2(cf::make_capillary(bore, len, 7u)),
                     7.0 * pi * bore * bore / 4.0, 1e-15),
               "area of 7 bores");
-// Effective length: L + pi d / 8 per open end, two ends (Brown & Escombe 1900; physics.md sec. 2).
+// Effective length: L + pi d / 8 per open end, two ends (Brown & Escombe 1900;
+// docs/models.md sec. 2).
 static_assert(close(cf::effective_length_m(cap), len + 2.0 * pi * bore / 8.0, 1e-15),
               "end corrections");
 static_assert(cf::effective_length_m(cf::make_capillary(bore, len, 1u, false)) == len,

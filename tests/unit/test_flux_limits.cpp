@@ -22,7 +22,8 @@ using namespace counterflux_test;
 
 namespace {
 
-// A typical condition: 25 degC, 1 atm; R from physics.md sec. 0.
+// A typical condition: 25 degC, 1 atm; R as quoted from SI 2019 (BIPM, 9th ed.;
+// docs/models.md sec. 0).
 template <class T>
 T concentration_298() {
     return T(101325) / (T(8.314462618) * T(298.15));
@@ -33,7 +34,7 @@ T concentration_298() {
 // ---------------------------------------------------------------------------
 // alpha -> 0: the log law becomes the equimolar law.
 // Equimolar law N = c D (y1 - y2) / L (Bird, Stewart & Lightfoot, Transport
-// Phenomena, 2nd ed., 2002, sec. 18.2; physics.md sec. 1, alpha = 0 line).
+// Phenomena, 2nd ed., 2002, sec. 18.2; docs/models.md sec. 1, alpha = 0).
 // The log law c D/(alpha L) ln[(1 - alpha y2)/(1 - alpha y1)] expands as
 // c D (y1 - y2)/L [1 + alpha (y1 + y2)/2 + alpha^2 (y1^2 + y1 y2 + y2^2)/3 + ...]
 // (Taylor series of ln(1 - x)), so it reaches the equimolar law linearly in
@@ -78,7 +79,7 @@ TEST_CASE_TEMPLATE("flux: alpha -> 0 of the log law is the equimolar law", T, fl
 // D_K -> infinity: the dusty-gas law becomes the molecular log law
 // (Mason & Malinauskas, Gas Transport in Porous Media: The Dusty-Gas Model,
 // 1983; with beta = 1 + D_AB/D_K -> 1 the dusty-gas flux is the Stefan-Maxwell
-// log law; physics.md sec. 1).
+// log law; docs/models.md sec. 1).
 TEST_CASE_TEMPLATE("flux: D_K -> infinity of the dusty-gas law is the molecular law", T, float,
                    double) {
     const T c = concentration_298<T>();
@@ -107,7 +108,7 @@ TEST_CASE_TEMPLATE("flux: D_K -> infinity of the dusty-gas law is the molecular 
 // ---------------------------------------------------------------------------
 // D_AB -> infinity: pure Knudsen flow N = c D_K (y1 - y2)/L, linear and
 // blind to the flux ratio (Knudsen flux of each species is independent;
-// Mason & Malinauskas 1983; physics.md sec. 1).
+// Mason & Malinauskas 1983; docs/models.md sec. 1).
 TEST_CASE_TEMPLATE("flux: D_AB -> infinity of the dusty-gas law is pure Knudsen flow", T, float,
                    double) {
     const T c = concentration_298<T>();
@@ -135,8 +136,8 @@ TEST_CASE_TEMPLATE("flux: D_AB -> infinity of the dusty-gas law is pure Knudsen 
 // Stagnant film at air level: N = c D/L ln[1/(1 - y)] (Bird, Stewart &
 // Lightfoot, 2nd ed., sec. 18.2, diffusion through a stagnant gas film), so
 // N / (c D y / L) = ln(1/(1 - y))/y. At y = 0.2095 (O2 in dry air) that is
-// 1.1221462 (evaluated by hand; physics.md sec. 1 quotes 1.1221, the brief
-// 1.12215, which is within 4e-6 of it).
+// 1.1221462 (evaluated by hand; docs/models.md sec. 1). The test name's rounded
+// 1.12215 is within 4e-6 of it.
 TEST_CASE_TEMPLATE("flux: stagnant O2 at 20.95 % gives ln(1/(1-y))/y = 1.12215", T, float, double) {
     const T c = concentration_298<T>();
     const T d = T(2.0e-5);
@@ -156,10 +157,10 @@ TEST_CASE_TEMPLATE("flux: stagnant O2 at 20.95 % gives ln(1/(1-y))/y = 1.12215",
 // ---------------------------------------------------------------------------
 // The general Stefan-Maxwell log law for a prescribed flux ratio,
 // N_A = c D/(alpha L) ln[(1 - alpha y2)/(1 - alpha y1)] (Bird, Stewart &
-// Lightfoot, 2nd ed., sec. 18.2-18.3; physics.md sec. 1), and its dusty-gas
+// Lightfoot, 2nd ed., sec. 18.2-18.3; docs/models.md sec. 1), and its dusty-gas
 // extension with beta = 1 + D_AB/D_K,
 // N_A = c D_AB/(alpha L) ln[(beta - alpha y2)/(beta - alpha y1)] (Mason &
-// Malinauskas 1983; physics.md sec. 1).
+// Malinauskas 1983; docs/models.md sec. 1).
 TEST_CASE_TEMPLATE("flux: the log law matches its closed form for several alpha", T, float,
                    double) {
     const T c = concentration_298<T>();
@@ -202,7 +203,7 @@ TEST_CASE_TEMPLATE("flux: the log law matches its closed form for several alpha"
 
 // ---------------------------------------------------------------------------
 // Bosanquet at alpha = 0: N = c (y1 - y2)/(L (1/D_AB + 1/D_K)) (the equimolar
-// dusty-gas result; Mason & Malinauskas 1983; physics.md sec. 1).
+// dusty-gas result; Mason & Malinauskas 1983; docs/models.md sec. 1).
 TEST_CASE_TEMPLATE("flux: Bosanquet at alpha = 0", T, float, double) {
     const T c = concentration_298<T>();
     const T len = T(1.0e-3);
@@ -260,8 +261,9 @@ TEST_CASE_TEMPLATE("flux: element_outlet and element_inlet invert element_flux",
 
 // ---------------------------------------------------------------------------
 // Solution-diffusion membrane N = Pi (p1 - p2)/delta with Arrhenius
-// permeability Pi(T) = Pi_ref exp[-(E/R)(1/T - 1/T_ref)] (physics.md sec. 1,
-// the solution-diffusion model with Pi = D_m S).
+// permeability Pi(T) = Pi_ref exp[-(E/R)(1/T - 1/T_ref)] (docs/models.md sec. 1;
+// the solution-diffusion model with Pi = D_m S, Wijmans & Baker, J. Membr. Sci.
+// 107, 1 (1995)).
 TEST_CASE_TEMPLATE("flux: membrane flux and Arrhenius permeability", T, float, double) {
     const T pi_ref = T(1.0e-15);  // mol/(m s Pa), about 3 Barrer
     const T delta = T(25.0e-6);
@@ -282,7 +284,7 @@ TEST_CASE_TEMPLATE("flux: membrane flux and Arrhenius permeability", T, float, d
     const cf::result<T> at_ref = cf::arrhenius_permeability(pi_ref, e_act, t_ref, t_ref);
     REQUIRE(at_ref.ok());
     CHECK(at_ref.value == pi_ref);
-    const T r = T(6.02214076e23 * 1.380649e-23);  // R = N_A k_B, exact (SI 2019; physics.md sec. 0)
+    const T r = T(6.02214076e23 * 1.380649e-23);  // R = N_A k_B, exact (SI 2019, BIPM 9th ed.)
     const T temps[] = {T(233.15), T(273.15), T(320), T(350)};
     for (const T temp : temps) {
         const cf::result<T> pi_t = cf::arrhenius_permeability(pi_ref, e_act, t_ref, temp);
@@ -296,7 +298,7 @@ TEST_CASE_TEMPLATE("flux: membrane flux and Arrhenius permeability", T, float, d
 }
 
 // 1 Barrer = 1e-10 cm3(STP) cm / (cm2 s cmHg) = 3.346e-16 mol/(m s Pa)
-// (physics.md sec. 1). By hand: 1 cm3(STP) = 1e-6 m3 x 101325 Pa / (R 273.15 K);
+// (the definition of the unit). By hand: 1 cm3(STP) = 1e-6 m3 x 101325 Pa / (R 273.15 K);
 // 1 cmHg = 101325/76 Pa (conventional).
 TEST_CASE("flux: 1 Barrer in SI") {
     const double r = 8.31446261815324;  // N_A k_B, SI 2019 exact
@@ -341,7 +343,7 @@ TEST_CASE_TEMPLATE("diffusivity: D_AB == D_BA exactly for every pair", T, float,
 
 // ---------------------------------------------------------------------------
 // Knudsen diffusivity D_K = (d/3) sqrt(8 R T/(pi M)) (kinetic theory; Cussler,
-// Diffusion, 3rd ed., 2009, sec. 6.4; physics.md sec. 2), for O2 in a 1 um
+// Diffusion, 3rd ed., 2009, sec. 6.4; docs/models.md sec. 2), for O2 in a 1 um
 // pore at 298.15 K, by hand. The mean molecular speed sqrt(8 R T/(pi M)) of
 // O2 at 25 degC is 444 m/s (Atkins, Physical Chemistry, table of mean speeds,
 // from memory).
@@ -389,10 +391,11 @@ TEST_CASE_TEMPLATE("diffusivity: mean free path of air at 0 degC, 1 atm", T, flo
 }
 
 // Neufeld, Janzen & Aziz, J. Chem. Phys. 57, 1100 (1972): Omega_D =
-// A/T*^B + C/exp(D T*) + E/exp(F T*) + G/exp(H T*) with the coefficients of
-// physics.md sec. 3. At T* = 1 every power is 1, so Omega_D = A + C e^-D +
-// E e^-F + G e^-H. The tabulated collision integral at kT/eps = 1.00 is 1.440
-// (Bird, Stewart & Lightfoot, 2nd ed., Table E.2, from memory); the fit is
+// A/T*^B + C/exp(D T*) + E/exp(F T*) + G/exp(H T*) with the paper's coefficients
+// (listed in docs/models.md sec. 3). At T* = 1 every power is 1, so
+// Omega_D = A + C e^-D + E e^-F + G e^-H. The tabulated collision integral at
+// kT/eps = 1.00 is 1.440 (Bird, Stewart & Lightfoot, 2nd ed., Table E.2, from
+// memory); the fit is
 // stated to be good to about 0.1 %.
 TEST_CASE_TEMPLATE("diffusivity: Neufeld collision integral at T* = 1", T, float, double) {
     const double a = 1.06036, c = 0.19300, e = 1.03587, g = 1.76474;

@@ -1,4 +1,4 @@
-// Barrier elements in series (physics.md sec. 2): flux continuity, added
+// Barrier elements in series (docs/models.md sec. 4): flux continuity, added
 // resistances, the interface profile, the inverse current -> concentration
 // and its round trips, and a sweep of every public function with extreme
 // inputs that must never give NaN or infinity.
@@ -89,7 +89,7 @@ TEST_CASE("series: two identical capillaries carry half the flow of one") {
 }
 
 // ---------------------------------------------------------------------------
-// Linear elements in series add their resistances (physics.md sec. 2):
+// Linear elements in series add their resistances (docs/models.md sec. 4):
 // F = y / sum_i R_i with, in s/mol (mole-fraction drop per mol/s),
 //   membrane   R = delta / (Pi A P)                 (N = Pi p / delta, p = y P)
 //   porous     R = L tau / (eps A c) (1/D + 1/D_K)  (D_eff = eps D / tau, Bosanquet)
@@ -175,7 +175,8 @@ TEST_CASE_TEMPLATE("series: molar_flow of one element is element_flux times its 
             REQUIRE(n.ok());
             REQUIRE(f.ok());
             CHECK(rel_diff(f.value, n.value * e.area_m2) <= pick<T>(1e-15, 1e-7f));
-            // The dusty-gas closed form, beta = 1 + D_AB/D_K (physics.md sec. 1), in double.
+            // The dusty-gas closed form, beta = 1 + D_AB/D_K (Mason & Malinauskas 1983;
+            // docs/models.md sec. 1), in double.
             if (alpha != T(0)) {
                 const double rm = static_cast<double>(e.inv_molecular_s_m2);
                 const double rl = static_cast<double>(e.inv_linear_s_m2);

@@ -1,5 +1,5 @@
 // Span factor, sensitivity and linearity of whole sensors against the limits
-// of physics.md sec. 4 and 5. Sensors are built by hand: CO in air
+// of docs/models.md sec. 4 and 5. Sensors are built by hand: CO in air
 // (equimolar counterdiffusion, CO + H2O -> CO2 + 2 H+ + 2 e-, n = 2) and O2 in
 // N2 (diffusion through stagnant N2, O2 + 4 H+ + 4 e- -> 2 H2O, n = 4).
 //
@@ -9,7 +9,7 @@
 //   free-molecular pores, D_K ~ sqrt(T) (kinetic theory, Cussler, Diffusion,
 //     3rd ed., sec. 6.4): S = n F c A D_K / L ~ P T^-0.5;
 //   solution-diffusion membrane, N = Pi (p1 - p2)/delta with p = y P and
-//     Arrhenius Pi (physics.md sec. 1): S = n F Pi(T) P A / delta.
+//     Arrhenius Pi (docs/models.md sec. 1): S = n F Pi(T) P A / delta.
 // A partial-pressure reading divides S by P, i.e. multiplies s by P_ref / P.
 #include <doctest/doctest.h>
 
@@ -55,7 +55,8 @@ cf::sensor_model<T, 4> with(const cf::sensor_model<T, 4>& m, const cf::barrier<T
     return out;
 }
 
-// The grid of physics.md sec. 5 / the sensor-file example: 250 .. 330 K, 70 .. 110 kPa.
+// A grid covering the [table] example of docs/sensor-file.md (-20 .. 50 degC,
+// 70 .. 110 kPa): 250 .. 330 K, 70 .. 110 kPa.
 template <class T>
 constexpr T temps[] = {T(250), T(260), T(273.15), T(280), T(293.15),
                        T(300), T(310), T(320),    T(330)};
@@ -267,7 +268,7 @@ TEST_CASE_TEMPLATE("span: membrane sensor follows (P/P_ref) exp(-(E/R)(1/T - 1/T
 
 // ---------------------------------------------------------------------------
 TEST_CASE("signal: capillary sensitivity is n F c A D / L_eff") {
-    // physics.md sec. 4 with the geometry of sec. 2, no Knudsen.
+    // docs/models.md sec. 4 with the geometry of sec. 2, no Knudsen.
     const double d = 0.15e-3, len = 1.2e-3;
     const cf::sensor_model<double, 4> m =
         with(co_in_air<double>(), cf::make_capillary(d, len, 1u, true, false));
@@ -291,7 +292,7 @@ TEST_CASE("signal: linearity ratio of a single capillary without Knudsen") {
     const double fractions[] = {1.0e-6, 1.0e-4, 1.0e-2, 0.1, 0.2095, 0.5, 0.8, 0.9, 0.99};
     for (const double y : fractions) {
         INFO("y = " << y);
-        // Equimolar: N = c D y / L, linear (physics.md sec. 1, alpha = 0).
+        // Equimolar: N = c D y / L, linear (docs/models.md sec. 1, alpha = 0).
         const cf::result<double> lin = cf::linearity_ratio(co, 300.0, 101325.0, y);
         REQUIRE(lin.ok());
         CHECK(std::fabs(lin.value - 1.0) <= 1e-12);
@@ -304,7 +305,7 @@ TEST_CASE("signal: linearity ratio of a single capillary without Knudsen") {
         CHECK(rel_diff(stag.value, -std::log1p(-y) / y) <= 1e-12);
         CHECK(rel_diff(stag.value, std::log(1.0 / (1.0 - y)) / y) <= 1e-15 / y + 1e-12);
     }
-    // At air level: 1.12215 (ln(1/0.7905)/0.2095 = 1.1221462 by hand; physics.md sec. 1
+    // At air level: 1.12215 (ln(1/0.7905)/0.2095 = 1.1221462 by hand; docs/models.md sec. 1
     // quotes 1.1221).
     CHECK(std::fabs(cf::linearity_ratio(o2, 293.15, 101325.0, 0.2095).value / 1.12215 - 1.0) <=
           5.0e-6);
