@@ -1,7 +1,8 @@
 // Binary gas diffusivities against experimental handbook values at 1 atm.
 //
-// Reference values: CRC Handbook of Chemistry and Physics, table "Diffusion
-// in Gases" (D12 at p = 101.325 kPa; the "large excess of air" rows for a
+// Reference values: CRC Handbook of Chemistry and Physics, section 6, table
+// 'Diffusion in Gases' (edition not recorded here; values as transcribed)
+// (D12 at p = 101.325 kPa; the "large excess of air" rows for a
 // trace gas in air, and equimolar mixtures), which cites Marrero & Mason,
 // J. Phys. Chem. Ref. Data 1, 3 (1972). Values in cm2/s, transcribed from the
 // table; the column of each value is named beside it.
@@ -38,7 +39,9 @@ struct handbook_row {
     bool polar;
 };
 
-// CRC "Diffusion in Gases" (after Marrero & Mason 1972), 101.325 kPa.
+// CRC Handbook of Chemistry and Physics, section 6, table 'Diffusion in Gases'
+// (edition not recorded here; values as transcribed; after Marrero & Mason 1972),
+// 101.325 kPa.
 constexpr handbook_row rows[] = {
     // large excess of air, 293.15 K column
     {"Ar", "air", 293.15, 0.189, false},
@@ -147,7 +150,7 @@ TEST_CASE("Fuller at 1 atm by hand for CO in air") {
 }
 
 TEST_CASE("measured diffusivity carried to another condition") {
-    // D = D_ref (T/T_ref)^m (P_ref/P), physics notes sec. 3.
+    // D = D_ref (T/T_ref)^m (P_ref/P), docs/models.md sec. 3.
     const auto d = cf::measured_diffusivity(2.08e-5, 293.15, 101325.0, 1.75, 350.0, 80000.0);
     REQUIRE(d.ok());
     CHECK(d.value == doctest::Approx(2.08e-5 * std::pow(350.0 / 293.15, 1.75) * (101325.0 / 80000.0)).epsilon(1e-14));
