@@ -1,11 +1,11 @@
 // Binary gas diffusivities against experimental handbook values at 1 atm.
 //
 // Reference values: CRC Handbook of Chemistry and Physics, section 6, table
-// 'Diffusion in Gases' (edition not recorded here; values as transcribed)
-// (D12 at p = 101.325 kPa; the "large excess of air" rows for a
-// trace gas in air, and equimolar mixtures), which cites Marrero & Mason,
-// J. Phys. Chem. Ref. Data 1, 3 (1972). Values in cm2/s, transcribed from the
-// table; the column of each value is named beside it.
+// 'Diffusion in Gases' (edition not recorded here; values as transcribed):
+// D12 at p = 101.325 kPa, the "large excess of air" rows for a trace gas in
+// air and the equimolar-mixture rows. The table cites Marrero & Mason,
+// J. Phys. Chem. Ref. Data 1, 3 (1972). Values in cm2/s; the column of each
+// value is named beside it.
 //
 // Tolerances: Poling, Prausnitz & O'Connell, The Properties of Gases and
 // Liquids, 5th ed. (2001), sec. 11-3 and 11-4 with Table 11-2, give the
