@@ -1,7 +1,7 @@
 // counterflux/barrier.hpp - the barrier elements of a sensor and their
 // transport data at a condition.
 //
-// Geometry (physics notes sec. 2):
+// Geometry (docs/models.md sec. 2):
 //   capillary: n parallel bores of diameter d and length L; area n pi d^2 / 4;
 //     effective length L + pi d / 8 per open end, the access resistance of a
 //     disc aperture 1/(4 D a) written as a length (Brown & Escombe, Phil.

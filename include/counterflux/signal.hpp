@@ -8,7 +8,7 @@
 // linear: S = n F / sum_i L_i (r_m,i + r_l,i) / (c A_i). The span factor
 // s(T, P) = S(T, P) / S(T_ref, P_ref) always comes from the full model; for a
 // reading reported as partial pressure it is multiplied by P_ref / P.
-// (Physics notes sec. 4 and 5.)
+// (docs/models.md sec. 4 and 5.)
 #ifndef COUNTERFLUX_SIGNAL_HPP
 #define COUNTERFLUX_SIGNAL_HPP
 
