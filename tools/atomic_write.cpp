@@ -95,17 +95,55 @@ void fsync_directory(const std::filesystem::path& dir) {
     ::close(fd);
 }
 
+// The file the write must replace: target itself, or, when target is a
+// symbolic link, the file the chain of links ends at (which may not exist
+// yet: a dangling link is written through, as a shell redirection would).
+// Refuses, as bad input, a target that is not a regular file: renaming over a
+// directory, a device, a FIFO or a socket would destroy it.
+std::filesystem::path resolve_target(const std::filesystem::path& target) {
+    std::filesystem::path path = target;
+    for (int links = 0;; ++links) {
+        struct stat st {};
+        if (::lstat(path.c_str(), &st) != 0) {
+            if (errno == ENOENT) return path;  // a new file
+            fail(target, "cannot examine '" + path.string() + "'", errno);
+        }
+        if (S_ISREG(st.st_mode)) return path;
+        if (S_ISLNK(st.st_mode)) {
+            if (links >= 40) fail(target, "too many levels of symbolic links", ELOOP);
+            std::error_code ec;
+            const std::filesystem::path link = std::filesystem::read_symlink(path, ec);
+            if (ec) fail(target, "cannot read the symbolic link '" + path.string() + "'", ec.value());
+            path = link.is_absolute() ? link : path.parent_path() / link;
+            continue;
+        }
+        const char* what = S_ISDIR(st.st_mode)    ? "a directory"
+                           : S_ISFIFO(st.st_mode) ? "a FIFO"
+                           : S_ISSOCK(st.st_mode) ? "a socket"
+                           : S_ISCHR(st.st_mode)  ? "a character device"
+                           : S_ISBLK(st.st_mode)  ? "a block device"
+                                                  : "not a regular file";
+        std::string message = "cannot write '" + target.string() + "': ";
+        if (path != target) message += "it leads to '" + path.string() + "', which ";
+        else message += "it ";
+        message += std::string("is ") + what + "; expected a regular file or a new file name (it was left alone)";
+        throw input_error(source_place{}, message);
+    }
+}
+
 }  // namespace
 
 bool is_atomic_write_temporary(std::string_view name) noexcept {
     return name.size() > 1 && name.front() == '.' && name.find(temp_marker) != std::string_view::npos;
 }
 
-void atomic_write(const std::filesystem::path& target, const std::function<void(std::ostream&)>& producer) {
-    if (target.empty()) throw run_error("cannot write: empty output path");
-    if (target.filename().empty()) fail(target, "not a file name", EISDIR);
-    std::error_code ec;
-    if (std::filesystem::is_directory(target, ec)) fail(target, "target is a directory", EISDIR);
+void atomic_write(const std::filesystem::path& requested, const std::function<void(std::ostream&)>& producer) {
+    if (requested.empty()) throw run_error("cannot write: empty output path");
+    if (requested.filename().empty() || requested.filename() == "." || requested.filename() == "..")
+        throw input_error(source_place{}, "cannot write '" + requested.string() +
+                                              "': it names a directory; expected a file name");
+    // Written beside, and renamed over, the file a symbolic link leads to.
+    const std::filesystem::path target = resolve_target(requested);
 
     const std::filesystem::path dir = target.has_parent_path() ? target.parent_path() : ".";
     std::string pattern = (dir / ("." + target.filename().string() + std::string(temp_marker) + "XXXXXX")).string();

@@ -4,6 +4,11 @@
 // disk (fsync), and only then renamed over the target. On any failure the
 // temporary file is removed and the target is left as it was: a failed run never
 // leaves a half-written file and never replaces a good file with a bad one.
+//
+// The target must be a regular file or a new name. A symbolic link is followed
+// (the temporary file goes beside the file it leads to and is renamed over that
+// file, so the link stays a link); a directory, device, FIFO or socket is
+// refused with input_error (exit 2) and left untouched.
 #ifndef COUNTERFLUX_TOOLS_ATOMIC_WRITE_HPP
 #define COUNTERFLUX_TOOLS_ATOMIC_WRITE_HPP
 
@@ -14,7 +19,8 @@
 
 namespace counterflux::tool {
 
-/// Writes content to target atomically. Throws run_error on failure.
+/// Writes content to target atomically. Throws input_error for a target that
+/// is not a regular file (see above), run_error for any other failure.
 void atomic_write(const std::filesystem::path& target, std::string_view content);
 
 /// Streams what producer writes to target atomically. If producer throws, or a

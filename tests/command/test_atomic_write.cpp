@@ -16,6 +16,7 @@
 
 namespace fs = std::filesystem;
 using counterflux::tool::atomic_write;
+using counterflux::tool::input_error;
 using counterflux::tool::run_error;
 
 namespace {
@@ -94,14 +95,92 @@ TEST_CASE("atomic write: streaming output arrives whole") {
     CHECK(s.temporaries() == 0);
 }
 
-TEST_CASE("atomic write: a target that is a directory is refused and left alone") {
+TEST_CASE("atomic write: a target that is a directory is refused as bad input and left alone") {
     scratch s("directory");
     const fs::path target = s.dir / "out";
     fs::create_directories(target);
     write_plain(target / "keep.txt", "keep");
-    CHECK_THROWS_AS(atomic_write(target, std::string("x")), run_error);
+    CHECK_THROWS_AS(atomic_write(target, std::string("x")), input_error);
+    CHECK_THROWS_AS(atomic_write(s.dir / "out" / "", std::string("x")), input_error);
     CHECK(fs::is_directory(target));
     CHECK(read(target / "keep.txt") == "keep");
+    CHECK(s.temporaries() == 0);
+}
+
+TEST_CASE("atomic write: a FIFO is refused as bad input and stays a FIFO") {
+    scratch s("fifo");
+    const fs::path target = s.dir / "pipe";
+    REQUIRE(::mkfifo(target.c_str(), 0600) == 0);
+    try {
+        atomic_write(target, std::string("x"));
+        FAIL("no error");
+    } catch (const input_error& e) {
+        const std::string message = e.what();
+        CHECK(message.find("is a FIFO") != std::string::npos);
+        CHECK(message.find(target.string()) != std::string::npos);
+    }
+    CHECK(fs::is_fifo(fs::symlink_status(target)));
+    CHECK(s.temporaries() == 0);
+
+    // Through a symbolic link, too: the FIFO it leads to is not replaced.
+    const fs::path link = s.dir / "pipe_link";
+    fs::create_symlink("pipe", link);
+    CHECK_THROWS_AS(atomic_write(link, std::string("x")), input_error);
+    CHECK(fs::is_symlink(fs::symlink_status(link)));
+    CHECK(fs::is_fifo(fs::symlink_status(target)));
+    CHECK(s.temporaries() == 0);
+}
+
+TEST_CASE("atomic write: a symbolic link is written through and stays a link") {
+    scratch s("symlink");
+    fs::create_directories(s.dir / "real");
+    const fs::path file = s.dir / "real" / "table.h";
+    write_plain(file, "old");
+    ::chmod(file.c_str(), 0640);
+    const fs::path link = s.dir / "table.h";
+    fs::create_symlink(fs::path("real") / "table.h", link);  // relative, resolved beside the link
+
+    atomic_write(link, std::string("new content"));
+    CHECK(fs::is_symlink(fs::symlink_status(link)));
+    CHECK(fs::read_symlink(link) == fs::path("real") / "table.h");
+    CHECK(read(file) == "new content");
+    struct stat st {};
+    REQUIRE(::stat(file.c_str(), &st) == 0);
+    CHECK((st.st_mode & 0777) == 0640);
+    CHECK(s.temporaries() == 0);
+    std::size_t beside = 0;  // the temporary went beside the resolved file, and is gone
+    for (const auto& e : fs::directory_iterator(s.dir / "real"))
+        if (counterflux::tool::is_atomic_write_temporary(e.path().filename().string())) ++beside;
+    CHECK(beside == 0);
+
+    // A chain of two links, the second absolute.
+    const fs::path second = s.dir / "second";
+    fs::create_symlink(fs::absolute(file), second);
+    const fs::path first = s.dir / "first";
+    fs::create_symlink("second", first);
+    atomic_write(first, std::string("via two links"));
+    CHECK(fs::is_symlink(fs::symlink_status(first)));
+    CHECK(fs::is_symlink(fs::symlink_status(second)));
+    CHECK(read(file) == "via two links");
+
+    // A dangling link creates the file it names.
+    const fs::path dangling = s.dir / "dangling";
+    fs::create_symlink(fs::path("real") / "new.csv", dangling);
+    atomic_write(dangling, std::string("fresh"));
+    CHECK(fs::is_symlink(fs::symlink_status(dangling)));
+    CHECK(read(s.dir / "real" / "new.csv") == "fresh");
+
+    // A link to a directory is refused; the link and the directory stay.
+    const fs::path to_dir = s.dir / "to_dir";
+    fs::create_symlink("real", to_dir);
+    CHECK_THROWS_AS(atomic_write(to_dir, std::string("x")), input_error);
+    CHECK(fs::is_symlink(fs::symlink_status(to_dir)));
+    CHECK(fs::is_directory(s.dir / "real"));
+
+    // A loop of links is an error, not a hang.
+    fs::create_symlink("loop_b", s.dir / "loop_a");
+    fs::create_symlink("loop_a", s.dir / "loop_b");
+    CHECK_THROWS_AS(atomic_write(s.dir / "loop_a", std::string("x")), run_error);
     CHECK(s.temporaries() == 0);
 }
 
