@@ -85,7 +85,9 @@ std::string_view trim(std::string_view s) noexcept {
 std::string in_quotes(std::string_view s) { return "'" + std::string(s) + "'"; }
 
 // Length of the longest prefix of s that is a strict decimal number; 0 if none.
-// Throws for a prefix that starts like a number but is malformed ("1e", "1.").
+// A point needs a digit on at least one side: "1.", ".5" and "1.5" are numbers,
+// "." is not. Throws for a prefix that starts like a number but is malformed:
+// an exponent without digits ("1e", "1e+") or a second point ("1.2.3").
 std::size_t scan_number(std::string_view s, std::string_view whole) {
     std::size_t i = 0;
     if (i < s.size() && (s[i] == '+' || s[i] == '-')) ++i;
@@ -120,15 +122,17 @@ double convert(std::string_view digits, std::string_view whole) {
     double value = 0.0;
     const auto [end, ec] = std::from_chars(digits.data(), digits.data() + digits.size(), value);
     if (ec == std::errc::result_out_of_range || !std::isfinite(value))
-        throw unit_error("number " + in_quotes(whole) + " is out of range");
+        throw number_out_of_range("number " + in_quotes(whole) + " is out of range");
     if (ec != std::errc() || end != digits.data() + digits.size())
         throw unit_error("malformed number " + in_quotes(whole));
     return value;
 }
 
-std::string bare_number_note(quantity_kind kind) {
-    if (kind == quantity_kind::dimensionless) return "a plain number";
-    return std::string("a bare number is ") + si_unit(kind);
+// What a key or flag of this kind expects: "a length (m, mm, um, nm; a bare
+// number is m)", "a plain number (no unit)".
+std::string expected_text(quantity_kind kind) {
+    if (kind == quantity_kind::dimensionless) return "a plain number (no unit)";
+    return kind_with_article(kind) + " (" + accepted_units(kind) + "; a bare number is " + si_unit(kind) + ")";
 }
 
 }  // namespace
@@ -151,6 +155,13 @@ const char* kind_name(quantity_kind kind) noexcept {
         case quantity_kind::velocity: return "rate";
     }
     return "quantity";
+}
+
+std::string kind_with_article(quantity_kind kind) {
+    const std::string name = kind_name(kind);
+    const char first = name.empty() ? 'x' : name.front();
+    const bool vowel = first == 'a' || first == 'e' || first == 'i' || first == 'o' || first == 'u';
+    return (vowel ? "an " : "a ") + name;
 }
 
 const char* si_unit(quantity_kind kind) noexcept {
@@ -202,8 +213,7 @@ double parse_number(std::string_view text) {
 
 double parse_quantity(std::string_view text, quantity_kind kind, parse_options options) {
     const std::string_view s = trim(text);
-    const std::string expected = std::string("a ") + kind_name(kind) + " (" + accepted_units(kind) +
-                                 "; " + bare_number_note(kind) + ")";
+    const std::string expected = expected_text(kind);
     if (s.empty()) throw unit_error("empty value, expected " + expected);
     if (options.allow_infinity && s == "inf") return std::numeric_limits<double>::infinity();
 
@@ -222,10 +232,10 @@ double parse_quantity(std::string_view text, quantity_kind kind, parse_options o
         const auto unit = find_unit(symbol);
         if (!unit) throw unit_error("unknown unit " + in_quotes(symbol) + ", expected " + expected);
         if (unit->kind != kind)
-            throw unit_error(in_quotes(s) + " is a " + kind_name(unit->kind) + ", expected " + expected);
+            throw unit_error(in_quotes(s) + " is " + kind_with_article(unit->kind) + ", expected " + expected);
         value = number * unit->scale + unit->offset;
     }
-    if (!std::isfinite(value)) throw unit_error("number " + in_quotes(s) + " is out of range");
+    if (!std::isfinite(value)) throw number_out_of_range("number " + in_quotes(s) + " is out of range");
     if (kind == quantity_kind::temperature && value < 0.0)
         throw unit_error(in_quotes(s) + " is below absolute zero");
     return value;
@@ -233,7 +243,7 @@ double parse_quantity(std::string_view text, quantity_kind kind, parse_options o
 
 double from_si(double value_si, std::string_view unit_symbol) {
     const auto unit = find_unit(unit_symbol);
-    if (!unit) return value_si;
+    if (!unit) throw unit_error("from_si: unknown unit " + in_quotes(unit_symbol));
     return (value_si - unit->offset) / unit->scale;
 }
 

@@ -49,6 +49,13 @@ public:
     using std::runtime_error::runtime_error;
 };
 
+/// A well-formed number too large for a double ("1e999"), or one whose value
+/// in SI overflows ("1e307 bar"): a unit_error the caller may word as "out of range".
+class number_out_of_range : public unit_error {
+public:
+    using unit_error::unit_error;
+};
+
 /// Options of one parse.
 struct parse_options {
     bool allow_infinity = false;  ///< accept the word "inf" (positive infinity)
@@ -56,6 +63,9 @@ struct parse_options {
 
 /// English name of a kind ("temperature", "length", ...).
 const char* kind_name(quantity_kind kind) noexcept;
+
+/// The name with its indefinite article ("a temperature", "an area").
+std::string kind_with_article(quantity_kind kind);
 
 /// The SI unit of a kind ("K", "m2/s"; "" for dimensionless).
 const char* si_unit(quantity_kind kind) noexcept;
@@ -70,14 +80,16 @@ const std::vector<unit_info>& unit_table();
 std::optional<unit_info> find_unit(std::string_view symbol) noexcept;
 
 /// Parses a strict decimal number (sign, digits, point, exponent; no "nan", no
-/// "inf", no hex, no surrounding text). Throws unit_error.
+/// "inf", no hex, no surrounding text). Throws unit_error (number_out_of_range
+/// for a number beyond the range of double).
 double parse_number(std::string_view text);
 
 /// Parses "number [unit]" as a quantity of the given kind and returns it in SI.
 /// Temperatures below absolute zero are rejected. Throws unit_error.
 double parse_quantity(std::string_view text, quantity_kind kind, parse_options options = {});
 
-/// Converts an SI value of the given kind to the named unit (for printing).
+/// Converts an SI value to the named unit (for printing). Throws unit_error for
+/// a unit not in unit_table() (a programming error: the callers name literal units).
 double from_si(double value_si, std::string_view unit_symbol);
 
 }  // namespace counterflux::tool

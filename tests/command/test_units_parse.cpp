@@ -234,3 +234,35 @@ TEST_CASE("units: from_si inverts the conversion for printing") {
     CHECK(counterflux::tool::from_si(2e-5, "cm2/s") == doctest::Approx(0.2));
     CHECK(counterflux::tool::from_si(5e-4, "ppm") == doctest::Approx(500.0));
 }
+
+TEST_CASE("units: from_si refuses a unit it does not know") {
+    CHECK_THROWS_AS(counterflux::tool::from_si(1.0, "furlong"), unit_error);
+    CHECK_THROWS_AS(counterflux::tool::from_si(1.0, "MM"), unit_error);
+}
+
+TEST_CASE("units: a point needs a digit on one side only") {
+    CHECK(parse_number("1.") == 1.0);
+    CHECK(parse_number(".5") == 0.5);
+    CHECK_THROWS_AS(parse_number("."), unit_error);
+    CHECK_THROWS_AS(parse_number("1e"), unit_error);
+}
+
+TEST_CASE("units: messages read well") {
+    // the article agrees with the kind
+    CHECK(message_of("1 mm2", quantity_kind::length).find("'1 mm2' is an area,") != std::string::npos);
+    CHECK(message_of("1 mm", quantity_kind::area).find("expected an area (") != std::string::npos);
+    CHECK(message_of("1 m2", quantity_kind::length).find("is an area, expected a length (") != std::string::npos);
+    CHECK(counterflux::tool::kind_with_article(quantity_kind::energy) == "a molar energy");
+    CHECK(counterflux::tool::kind_with_article(quantity_kind::area) == "an area");
+    // a plain number is said once
+    const std::string plain = message_of("2 %", quantity_kind::dimensionless);
+    CHECK(plain.find("expected a plain number (no unit)") != std::string::npos);
+    CHECK(plain.find("a plain number (no unit; a plain number)") == std::string::npos);
+}
+
+TEST_CASE("units: a number too large for a double is out of range, not malformed") {
+    CHECK_THROWS_AS(parse_number("1e999"), counterflux::tool::number_out_of_range);
+    CHECK_THROWS_AS(parse_quantity("1e999 m", quantity_kind::length), counterflux::tool::number_out_of_range);
+    CHECK_THROWS_AS(parse_quantity("1e308 bar", quantity_kind::pressure), counterflux::tool::number_out_of_range);
+    CHECK(message_of("1e999 m", quantity_kind::length).find("out of range") != std::string::npos);
+}
