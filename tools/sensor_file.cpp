@@ -3,6 +3,7 @@
 #include "sensor_file.hpp"
 
 #include <algorithm>
+#include <cerrno>
 #include <cmath>
 #include <cstring>
 #include <fstream>
@@ -11,6 +12,8 @@
 
 #include <toml++/toml.h>
 
+#include "plausibility.hpp"
+#include "report.hpp"
 #include "units_parse.hpp"
 
 namespace counterflux::tool {
@@ -137,8 +140,8 @@ public:
     std::optional<located<double>> quantity(const toml::table& t, std::string_view key, kind k, bool required,
                                             const source_place& header, const std::string& where,
                                             const std::string& dotted, parse_options options = {}) {
-        const std::string expected = std::string("a ") + kind_name(k) +
-                                     (k == kind::dimensionless ? std::string()
+        const std::string expected = kind_with_article(k) +
+                                     (k == kind::dimensionless ? std::string(" (no unit)")
                                                                : ": " + accepted_units(k) + ", or a bare number in " +
                                                                      si_unit(k));
         const toml::node* n = get(t, key, required, header, where, expected);
@@ -239,6 +242,13 @@ public:
         return ok;
     }
 
+    // Plausibility check: v must lie in range (false, reported, when it does not
+    // or when v is absent).
+    bool in_range(const std::optional<located<double>>& v, const std::string& dotted, const value_range& range) {
+        if (!v) return false;
+        return require_that(range.contains(v->value), *v, dotted, range.expected());
+    }
+
     const std::string& path() const noexcept { return path_; }
 
 private:
@@ -319,6 +329,9 @@ void read_sensor(reader& r, const toml::table& t, sensor_file& out, const source
             } else {
                 try {
                     ratio = parse_number(s->get());
+                } catch (const number_out_of_range&) {
+                    r.error(p, "'sensor.flux_ratio' = \"" + s->get() +
+                                   "\" is out of range; expected a value from -10 to 10");
                 } catch (const unit_error&) {
                     std::string message = "'sensor.flux_ratio' = \"" + s->get() + "\" is not " + flux_expected;
                     if (const auto m = closest_match(s->get(), {"equimolar", "stagnant"}))
@@ -330,7 +343,9 @@ void read_sensor(reader& r, const toml::table& t, sensor_file& out, const source
             ratio = static_cast<double>(i->get());
         } else if (const auto* f = n->as_floating_point()) {
             if (std::isfinite(f->get())) ratio = f->get();
-            else r.error(p, "'sensor.flux_ratio' must be a finite number");
+            else if (std::isnan(f->get())) r.error(p, "'sensor.flux_ratio' = nan is not a number; expected " + flux_expected);
+            else r.error(p, "'sensor.flux_ratio' = " + format_number(f->get()) +
+                                " is out of range; expected a value from -10 to 10");
         } else {
             r.error(p, "'sensor.flux_ratio' must be " + flux_expected + ", got " + type_name(n->type()));
         }
@@ -367,15 +382,18 @@ void read_sensor(reader& r, const toml::table& t, sensor_file& out, const source
 void read_reference(reader& r, const toml::table& t, sensor_file& out, const source_place& header) {
     const std::string where = "[reference]";
     r.check_keys(t, where, {"temperature", "pressure"});
-    if (auto v = r.quantity(t, "temperature", kind::temperature, true, header, where, "reference.temperature"))
-        if (r.require_that(v->value > 0.0, *v, "reference.temperature", "it must be above absolute zero"))
-            out.model.reference_temperature_K = v->value;
+    out.reference_place = header;
+    if (auto v = r.quantity(t, "temperature", kind::temperature, true, header, where, "reference.temperature")) {
+        out.reference_temperature_place = v->place;
+        if (r.in_range(v, "reference.temperature", temperature_range)) out.model.reference_temperature_K = v->value;
+    }
     if (auto v = r.quantity(t, "pressure", kind::pressure, true, header, where, "reference.pressure"))
-        if (positive(r, v, "reference.pressure")) out.model.reference_pressure_Pa = v->value;
+        if (r.in_range(v, "reference.pressure", pressure_range)) out.model.reference_pressure_Pa = v->value;
 }
 
 void read_diffusivity(reader& r, const toml::table& t, sensor_file& out, const source_place& header) {
     const std::string where = "[diffusivity]";
+    out.diffusivity_place = header;
     const std::vector<std::string> measured_keys = {"value", "at_temperature", "at_pressure", "exponent"};
     auto& d = out.model.diffusivity;
     d.a = out.model.target;
@@ -386,6 +404,7 @@ void read_diffusivity(reader& r, const toml::table& t, sensor_file& out, const s
     if (!t.contains("method")) r.check_keys(t, where, all_keys);  // first, so a misspelt 'method' is explained
     auto m = r.string(t, "method", true, header, where, "diffusivity.method",
                       "\"fuller\", \"chapman-enskog\" or \"measured\"");
+    if (m) out.diffusivity_place = m->place;
     bool measured = false;
     if (m) {
         if (m->value == "fuller") d.method = counterflux::diffusivity_method::fuller;
@@ -417,10 +436,9 @@ void read_diffusivity(reader& r, const toml::table& t, sensor_file& out, const s
     if (auto v = r.quantity(t, "value", kind::diffusivity, true, header, where, "diffusivity.value"))
         if (positive(r, v, "diffusivity.value")) d.measured_m2_s = v->value;
     if (auto v = r.quantity(t, "at_temperature", kind::temperature, true, header, where, "diffusivity.at_temperature"))
-        if (r.require_that(v->value > 0.0, *v, "diffusivity.at_temperature", "it must be above absolute zero"))
-            d.measured_temperature_K = v->value;
+        if (r.in_range(v, "diffusivity.at_temperature", temperature_range)) d.measured_temperature_K = v->value;
     if (auto v = r.quantity(t, "at_pressure", kind::pressure, true, header, where, "diffusivity.at_pressure"))
-        if (positive(r, v, "diffusivity.at_pressure")) d.measured_pressure_Pa = v->value;
+        if (r.in_range(v, "diffusivity.at_pressure", pressure_range)) d.measured_pressure_Pa = v->value;
     d.measured_exponent = 1.75;
     if (auto v = r.quantity(t, "exponent", kind::dimensionless, false, header, where, "diffusivity.exponent"))
         if (r.require_that(v->value >= 0.0 && v->value <= 3.0, *v, "diffusivity.exponent",
@@ -484,13 +502,16 @@ void read_barrier(reader& r, const toml::table& t, std::size_t index, sensor_fil
     const auto pos = [&](const std::optional<located<double>>& v, const char* key) {
         return positive(r, v, prefix + key);
     };
+    const auto ranged = [&](const std::optional<located<double>>& v, const char* key, const value_range& range) {
+        return r.in_range(v, prefix + key, range);
+    };
     bool ok = true;
     counterflux::barrier<double> b{};
     if (ty == "capillary") {
         const auto diameter = q("diameter", kind::length, true);
         const auto length = q("length", kind::length, true);
-        ok &= pos(diameter, "diameter");
-        ok &= pos(length, "length");
+        ok &= ranged(diameter, "diameter", length_range);
+        ok &= ranged(length, "length", length_range);
         long long count = 1;
         if (t.contains("count")) {
             const auto c = r.integer(t, "count", false, header, where, prefix + "count", 1, 1000000);
@@ -515,13 +536,13 @@ void read_barrier(reader& r, const toml::table& t, std::size_t index, sensor_fil
         const auto porosity = q("porosity", kind::dimensionless, true);
         const auto tortuosity = q("tortuosity", kind::dimensionless, true);
         const auto pore = q("pore_diameter", kind::length, knudsen);
-        ok &= pos(thickness, "thickness");
-        ok &= pos(area, "area");
+        ok &= ranged(thickness, "thickness", length_range);
+        ok &= ranged(area, "area", area_range);
         ok &= porosity && r.require_that(porosity->value > 0.0 && porosity->value <= 1.0, *porosity,
                                          prefix + "porosity", "expected 0 < porosity <= 1");
         ok &= tortuosity && r.require_that(tortuosity->value >= 1.0 && tortuosity->value <= 100.0, *tortuosity,
                                            prefix + "tortuosity", "expected 1 <= tortuosity <= 100");
-        if (pore) ok &= pos(pore, "pore_diameter");
+        if (pore) ok &= ranged(pore, "pore_diameter", length_range);
         else ok &= !t.contains("pore_diameter") && !knudsen;
         if (ok)
             b = counterflux::make_porous<double>(thickness->value, area->value, porosity->value, tortuosity->value,
@@ -533,12 +554,10 @@ void read_barrier(reader& r, const toml::table& t, std::size_t index, sensor_fil
         const auto permeability = q("permeability", kind::permeability, true);
         const auto energy = q("activation_energy", kind::energy, false);
         const auto diffusivity = q("diffusivity", kind::diffusivity, false);
-        ok &= pos(thickness, "thickness");
-        ok &= pos(area, "area");
-        ok &= pos(permeability, "permeability");
-        if (energy)
-            ok &= r.require_that(std::fabs(energy->value) <= 300.0e3, *energy, prefix + "activation_energy",
-                                 "expected a magnitude up to 300 kJ/mol");
+        ok &= ranged(thickness, "thickness", length_range);
+        ok &= ranged(area, "area", area_range);
+        ok &= ranged(permeability, "permeability", permeability_range);
+        if (energy) ok &= ranged(energy, "activation_energy", activation_energy_range);
         else ok &= !t.contains("activation_energy");
         if (diffusivity) ok &= pos(diffusivity, "diffusivity");
         else ok &= !t.contains("diffusivity");
@@ -558,7 +577,7 @@ void read_barrier(reader& r, const toml::table& t, std::size_t index, sensor_fil
 }
 
 std::optional<axis_spec> read_axis(reader& r, const toml::table& parent, const char* key, kind k,
-                                   const source_place& header, const char* limits_rule) {
+                                   const source_place& header, const value_range& range) {
     const std::string dotted = std::string("table.") + key;
     const toml::node* n = r.get(parent, key, true, header, "[table]",
                                 std::string("an inline table { from = ..., to = ..., points = ... } of ") + kind_name(k));
@@ -576,7 +595,9 @@ std::optional<axis_spec> read_axis(reader& r, const toml::table& parent, const c
     const auto to = r.quantity(*t, "to", k, true, place, where, dotted + ".to");
     const auto points = r.integer(*t, "points", true, place, where, dotted + ".points", 2, 4096);
     if (!from || !to || !points) return std::nullopt;
-    if (!r.require_that(from->value > 0.0, *from, dotted + ".from", limits_rule)) return std::nullopt;
+    const bool from_ok = r.in_range(from, dotted + ".from", range);
+    const bool to_ok = r.in_range(to, dotted + ".to", range);
+    if (!from_ok || !to_ok) return std::nullopt;
     if (!r.require_that(to->value > from->value, *to, dotted + ".to", "it must be greater than 'from'"))
         return std::nullopt;
     return axis_spec{from->value, to->value, static_cast<unsigned>(points->value)};
@@ -587,8 +608,8 @@ void read_table(reader& r, const toml::table& t, sensor_file& out, const source_
     table_spec spec;
     spec.place = header;
     bool ok = true;
-    const auto temperature = read_axis(r, t, "temperature", kind::temperature, header, "it must be above absolute zero");
-    const auto pressure = read_axis(r, t, "pressure", kind::pressure, header, "it must be greater than zero");
+    const auto temperature = read_axis(r, t, "temperature", kind::temperature, header, temperature_range);
+    const auto pressure = read_axis(r, t, "pressure", kind::pressure, header, pressure_range);
     ok &= temperature.has_value() && pressure.has_value();
     if (temperature) spec.temperature = *temperature;
     if (pressure) spec.pressure = *pressure;
@@ -639,21 +660,21 @@ void read_response(reader& r, const toml::table& t, sensor_file& out, const sour
     if (ok) out.response = spec;
 }
 
-// Checks the model as a whole with the library at the reference condition.
+// Checks the model as a whole with the library at the reference condition:
+// first each part on its own (so that a failure points at the part), then the
+// sensitivity and the current at full scale.
 void check_model(reader& r, sensor_file& out) {
     const auto& m = out.model;
     const double t = m.reference_temperature_K;
     const double p = m.reference_pressure_Pa;
-    const auto d = counterflux::evaluate(m.diffusivity, t, p);
-    if (!d.ok()) {
-        r.error(out.sensor_place, std::string("the diffusivity of ") + m.target->formula + " in " +
-                                      m.background->formula + " cannot be computed at the reference condition: " +
-                                      counterflux::describe(d.code));
+    const std::string condition = "the reference condition (" + format_temperature(t) + ", " + format_pressure(p) + ")";
+    if (const auto d = diagnose_condition(out, t, p, condition)) {
+        r.error(d->place, d->message);
         return;
     }
     const auto s = counterflux::sensitivity_A_per_mol_per_mol(m, t, p);
     if (!s.ok()) {
-        r.error(out.sensor_place, std::string("the model cannot be evaluated at the reference condition: ") +
+        r.error(out.sensor_place, "the sensitivity of this sensor cannot be computed at " + condition + ": " +
                                       counterflux::describe(s.code));
         return;
     }
@@ -665,6 +686,37 @@ void check_model(reader& r, sensor_file& out) {
 }
 
 }  // namespace
+
+std::optional<diagnostic> diagnose_condition(const sensor_file& f, double t, double p, const std::string& condition) {
+    const auto& m = f.model;
+    if (m.target == nullptr || m.background == nullptr) return std::nullopt;  // reported by the reader
+    const auto d = counterflux::evaluate(m.diffusivity, t, p);
+    if (!d.ok() || !(d.value > 0.0)) {
+        std::string message = std::string("the diffusivity of ") + m.target->formula + " in " + m.background->formula +
+                              " (" + counterflux::method_name(m.diffusivity.method) + ") cannot be computed at " +
+                              condition + ": " + counterflux::describe(d.code);
+        if (m.diffusivity.method == counterflux::diffusivity_method::chapman_enskog)
+            if (const auto fit = chapman_enskog_fit_problem(*m.target, *m.background, t))
+                message += "; " + *fit + "; use method = \"fuller\" or \"measured\"";
+        return diagnostic{f.diffusivity_place, message};
+    }
+    const auto lambda = counterflux::mean_free_path(counterflux::kinetic_diameter_m<double>(*m.background), t, p);
+    if (!lambda.ok() || !(lambda.value > 0.0))
+        return diagnostic{f.sensor_place, std::string("the mean free path of ") + m.background->formula +
+                                              " cannot be computed at " + condition + ": " +
+                                              counterflux::describe(lambda.code)};
+    const counterflux::gas_environment<double> env{t, p, d.value, counterflux::molar_mass_kg_mol<double>(*m.target),
+                                                   lambda.value};
+    for (std::size_t i = 0; i < m.barriers.count; ++i) {
+        const auto& b = m.barriers.elements[i];
+        const auto e = counterflux::resolve(b, env);
+        if (e.ok()) continue;
+        source_place place = i < f.element_places.size() ? f.element_places[i] : f.sensor_place;
+        return diagnostic{place, "[[barrier]] #" + std::to_string(i + 1) + " (" + counterflux::kind_name(b.kind) +
+                                     ") cannot be resolved at " + condition + ": " + counterflux::describe(e.code)};
+    }
+    return std::nullopt;
+}
 
 std::string known_gas_formulas() {
     std::string out;
@@ -765,16 +817,42 @@ sensor_file parse_sensor_file(std::string_view text, const std::string& path) {
 
 sensor_file read_sensor_file(const std::filesystem::path& path) {
     const std::string name = path.string();
-    std::error_code ec;
     source_place whole;
     whole.file = name;
-    if (std::filesystem::is_directory(path, ec)) throw input_error(whole, "is a directory, expected a sensor file");
+    // Only a regular file (symbolic links followed): a FIFO would block the
+    // read, a device such as /dev/zero would never end.
+    std::error_code ec;
+    const auto st = std::filesystem::status(path, ec);
+    if (ec || !std::filesystem::exists(st)) {
+        const int e = ec ? ec.value() : ENOENT;
+        throw input_error(whole, std::string("cannot open the sensor file: ") + std::strerror(e));
+    }
+    const auto type = st.type();
+    if (type == std::filesystem::file_type::directory)
+        throw input_error(whole, "is a directory, expected a sensor file (a regular file)");
+    if (type != std::filesystem::file_type::regular) {
+        const char* what = type == std::filesystem::file_type::fifo        ? "a FIFO"
+                           : type == std::filesystem::file_type::socket    ? "a socket"
+                           : type == std::filesystem::file_type::character ? "a character device"
+                           : type == std::filesystem::file_type::block     ? "a block device"
+                                                                            : "not a regular file";
+        throw input_error(whole, std::string("is ") + what + ", expected a sensor file (a regular file)");
+    }
+    const auto too_big = [&] {
+        return input_error(whole, "is larger than " + std::to_string(max_sensor_file_bytes / 1024) +
+                                      " KiB (1 MiB), too large for a sensor file");
+    };
+    const auto size = std::filesystem::file_size(path, ec);
+    if (!ec && size > max_sensor_file_bytes) throw too_big();
     std::ifstream in(path, std::ios::binary);
     if (!in) throw input_error(whole, std::string("cannot open the sensor file: ") + std::strerror(errno));
-    std::ostringstream buffer;
-    buffer << in.rdbuf();
+    // Read at most one byte past the cap, so a file that grows is still bounded.
+    std::string text(max_sensor_file_bytes + 1, '\0');
+    in.read(text.data(), static_cast<std::streamsize>(text.size()));
     if (in.bad()) throw input_error(whole, "cannot read the sensor file");
-    return parse_sensor_file(buffer.str(), name);
+    text.resize(static_cast<std::size_t>(in.gcount()));
+    if (text.size() > max_sensor_file_bytes) throw too_big();
+    return parse_sensor_file(text, name);
 }
 
 }  // namespace counterflux::tool

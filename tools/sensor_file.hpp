@@ -63,12 +63,29 @@ struct sensor_file {
     std::vector<source_place> element_places;  ///< the [[barrier]] header of each element
     source_place sensor_place;                 ///< the [sensor] header
     source_place full_scale_place;             ///< the full_scale value
+    source_place reference_place;              ///< the [reference] header
+    source_place reference_temperature_place;  ///< the reference.temperature value
+    source_place diffusivity_place;            ///< the diffusivity.method value (else the [diffusivity] header)
     std::optional<table_spec> table;           ///< [table], if present
     std::optional<response_spec> response;     ///< [response], if present
 };
 
-/// Reads and checks the file at path. Throws input_error.
+/// Largest sensor file read_sensor_file accepts, in bytes (1 MiB).
+inline constexpr std::size_t max_sensor_file_bytes = std::size_t(1) << 20;
+
+/// Reads and checks the file at path, which must be a regular file (after
+/// following symbolic links) of at most max_sensor_file_bytes. Throws input_error.
 sensor_file read_sensor_file(const std::filesystem::path& path);
+
+/// Why the file's model cannot be evaluated at (temperature_K, pressure_Pa),
+/// pointing at the part of the file to blame: the diffusivity (at
+/// diffusivity.method; for Chapman-Enskog outside its fit range, with the
+/// reduced temperature), the mean free path of the background (at [sensor]) or
+/// one [[barrier]] element (at its header, with the library's status text).
+/// condition names the condition in the message ("the reference condition",
+/// "--temperature 900 K"). Nothing when every part resolves.
+std::optional<diagnostic> diagnose_condition(const sensor_file& file, double temperature_K, double pressure_Pa,
+                                             const std::string& condition);
 
 /// Parses and checks text as a sensor file; path is only used in messages.
 /// Throws input_error.

@@ -4,8 +4,13 @@
 #include <doctest/doctest.h>
 
 #include <cmath>
+#include <filesystem>
+#include <fstream>
 #include <limits>
 #include <string>
+
+#include <sys/stat.h>
+#include <unistd.h>
 
 #include <counterflux/counterflux.hpp>
 
@@ -226,4 +231,143 @@ TEST_CASE("sensor file: a file that cannot be opened") {
         CHECK(counterflux::tool::format_diagnostic(e.diagnostics().front()).rfind("/nonexistent/dir/x.toml: error: ", 0) ==
               0);
     }
+}
+
+namespace {
+
+// A fresh scratch directory for one test case, removed afterwards.
+struct scratch_dir {
+    std::filesystem::path dir;
+    explicit scratch_dir(const std::string& name) {
+        dir = std::filesystem::temp_directory_path() /
+              ("counterflux_sensor_file_" + name + "_" + std::to_string(::getpid()));
+        std::filesystem::remove_all(dir);
+        std::filesystem::create_directories(dir);
+    }
+    ~scratch_dir() {
+        std::error_code ec;
+        std::filesystem::remove_all(dir, ec);
+    }
+};
+
+// The first diagnostic of reading path, formatted; empty when it reads.
+std::string read_error(const std::filesystem::path& path) {
+    try {
+        (void)read_sensor_file(path);
+    } catch (const input_error& e) {
+        return counterflux::tool::format_diagnostic(e.diagnostics().front());
+    }
+    return {};
+}
+
+}  // namespace
+
+TEST_CASE("sensor file: a FIFO is refused without being opened") {
+    scratch_dir s("fifo");
+    const auto fifo = s.dir / "sensor.toml";
+    REQUIRE(::mkfifo(fifo.c_str(), 0600) == 0);
+    // Opening a FIFO for reading would block until a writer comes: the test
+    // finishing at all shows that the reader never opened it.
+    const std::string e = read_error(fifo);
+    CHECK(e.rfind(fifo.string() + ": error: is a FIFO, expected a sensor file", 0) == 0);
+    std::filesystem::create_symlink("sensor.toml", s.dir / "link.toml");
+    CHECK(read_error(s.dir / "link.toml").find("is a FIFO") != std::string::npos);
+}
+
+TEST_CASE("sensor file: at most 1 MiB is read") {
+    scratch_dir s("size");
+    const auto big = s.dir / "big.toml";
+    {
+        std::ofstream out(big, std::ios::binary);
+        out << minimal;
+        out << std::string(counterflux::tool::max_sensor_file_bytes, '#') << "\n";  // a long comment
+    }
+    CHECK(read_error(big).rfind(big.string() + ": error: is larger than 1024 KiB (1 MiB)", 0) == 0);
+
+    // Exactly at the cap is still read: padding with a comment line.
+    const auto edge = s.dir / "edge.toml";
+    {
+        std::string text = minimal + "#";
+        text += std::string(counterflux::tool::max_sensor_file_bytes - text.size() - 1, 'x') + "\n";
+        REQUIRE(text.size() == counterflux::tool::max_sensor_file_bytes);
+        std::ofstream out(edge, std::ios::binary);
+        out << text;
+    }
+    CHECK(read_error(edge).empty());
+}
+
+TEST_CASE("sensor file: a symbolic link to a regular file is read; a directory is refused") {
+    scratch_dir s("link");
+    {
+        std::ofstream out(s.dir / "real.toml", std::ios::binary);
+        out << minimal;
+    }
+    std::filesystem::create_symlink("real.toml", s.dir / "link.toml");
+    CHECK(read_sensor_file(s.dir / "link.toml").symbol == "cell");
+    CHECK(read_error(s.dir).find("is a directory") != std::string::npos);
+}
+
+TEST_CASE("sensor file: implausible values are refused at their key, with the range") {
+    const auto replaced = [](const std::string& from, const std::string& to) {
+        std::string text = minimal;
+        REQUIRE(text.find(from) != std::string::npos);
+        text.replace(text.find(from), from.size(), to);
+        return first_line(text);
+    };
+    CHECK(replaced("\"0.15 mm\"", "\"1e300 m\"") ==
+          "test.toml:18:12: error: 'barrier[1].diameter' = \"1e300 m\" is out of range; expected a length from 1 nm "
+          "to 1 m");
+    CHECK(replaced("\"0.15 mm\"", "\"1e-300 m\"").find("'barrier[1].diameter'") != std::string::npos);
+    CHECK(replaced("\"1.2 mm\"", "1e308").find("test.toml:19:10: error: 'barrier[1].length' = 1e+308 is out of range") ==
+          0);
+    CHECK(replaced("\"1.2 mm\"", "\"1 nm\"").empty());   // the edges are accepted
+    CHECK(replaced("\"1.2 mm\"", "\"1 m\"").empty());
+    CHECK(replaced("\"20 C\"", "\"1e6 K\"").find("'reference.temperature' = \"1e6 K\" is out of range; expected a "
+                                                  "temperature from 100 K to 1000 K") != std::string::npos);
+    CHECK(replaced("\"20 C\"", "\"99 K\"").find("'reference.temperature'") != std::string::npos);
+    CHECK(replaced("\"20 C\"", "\"100 K\"").empty());
+    CHECK(replaced("\"101.325 kPa\"", "\"1e300 Pa\"").find("expected a pressure from 100 Pa to 10 MPa") !=
+          std::string::npos);
+    CHECK(replaced("\"101.325 kPa\"", "\"10 MPa\"").find("unknown unit") != std::string::npos);  // MPa is not a unit
+    CHECK(replaced("\"101.325 kPa\"", "1e7").empty());
+    CHECK(replaced("\"equimolar\"", "\"1e999\"") ==
+          "test.toml:6:14: error: 'sensor.flux_ratio' = \"1e999\" is out of range; expected a value from -10 to 10");
+}
+
+TEST_CASE("sensor file: membrane permeability and activation energy ranges") {
+    const auto membrane = [](const std::string& permeability, const std::string& energy) {
+        return first_line(minimal + "\n[[barrier]]\ntype = \"membrane\"\nthickness = \"25 um\"\narea = \"10 mm2\"\n"
+                                    "permeability = \"" + permeability + "\"\nactivation_energy = \"" + energy + "\"\n");
+    };
+    CHECK(membrane("1000 Barrer", "12 kJ/mol").empty());
+    CHECK(membrane("1e-3 mol/(m s Pa)", "12 kJ/mol").find("'barrier[2].permeability'") != std::string::npos);
+    CHECK(membrane("0 Barrer", "12 kJ/mol").find("above 0 and below 1e-6 mol/(m s Pa)") != std::string::npos);
+    CHECK(membrane("1000 Barrer", "499 kJ/mol").empty());
+    CHECK(membrane("1000 Barrer", "-499 kJ/mol").empty());
+    CHECK(membrane("1000 Barrer", "500 kJ/mol").find("magnitude below 500 kJ/mol") != std::string::npos);
+    CHECK(membrane("1000 Barrer", "-600 kJ/mol").find("'barrier[2].activation_energy'") != std::string::npos);
+}
+
+TEST_CASE("sensor file: a model that fails at the reference condition is blamed on the part that fails") {
+    // Chapman-Enskog outside its fit range: at diffusivity.method, with T*.
+    std::string ce = minimal;
+    ce.replace(ce.find("\"CO\""), 4, "\"H2O\"");
+    ce.replace(ce.find("\"air\""), 5, "\"NH3\"");
+    ce.replace(ce.find("\"20 C\""), 6, "\"150 K\"");
+    ce.replace(ce.find("\"fuller\""), 8, "\"chapman-enskog\"");
+    const std::string e = first_line(ce);
+    CHECK(e.rfind("test.toml:14:10: error: the diffusivity of H2O in NH3 (chapman-enskog)", 0) == 0);
+    CHECK(e.find("T* = T / sqrt(eps_H2O eps_NH3)") != std::string::npos);
+    CHECK(e.find("Neufeld fit range 0.3 .. 100") != std::string::npos);
+
+    // An element whose resistivity overflows: at its [[barrier]] header, with the library's status text.
+    const std::string porous = minimal + "\n[[barrier]]\ntype = \"porous\"\nthickness = \"1 mm\"\narea = \"10 mm2\"\n"
+                                         "porosity = 1e-310\ntortuosity = 2\npore_diameter = \"1 um\"\n";
+    CHECK(first_line(porous) == "test.toml:21:1: error: [[barrier]] #2 (porous) cannot be resolved at the reference "
+                                "condition (20 C (293.15 K), 101.325 kPa): " +
+                                    std::string(counterflux::describe(counterflux::status::not_finite)));
+
+    // diagnose_condition at another condition: nothing to blame for a good file.
+    const sensor_file good = parse_sensor_file(minimal, "test.toml");
+    CHECK_FALSE(counterflux::tool::diagnose_condition(good, 300.0, 1e5, "here").has_value());
 }

@@ -5,6 +5,8 @@
 #include <memory>
 #include <ostream>
 #include <sstream>
+#include <string>
+#include <vector>
 
 #include <CLI/CLI.hpp>
 #include <nlohmann/json.hpp>
@@ -34,28 +36,47 @@ int run_design(const design_options& o, std::ostream& out) {
     const sensor_file f = read_sensor_file(o.file);
     const model_type& m = f.model;
 
-    const double t = o.temperature ? flag_quantity("--temperature", *o.temperature, quantity_kind::temperature)
+    // The condition: each flag in its plausible range (plausibility.hpp), else the
+    // file's reference condition and full scale.
+    const double t = o.temperature ? flag_quantity_in("--temperature", *o.temperature, quantity_kind::temperature,
+                                                      temperature_range)
                                    : m.reference_temperature_K;
-    const double p = o.pressure ? flag_quantity("--pressure", *o.pressure, quantity_kind::pressure)
+    const double p = o.pressure ? flag_quantity_in("--pressure", *o.pressure, quantity_kind::pressure, pressure_range)
                                 : m.reference_pressure_Pa;
-    const double y = o.concentration
-                         ? flag_quantity("--concentration", *o.concentration, quantity_kind::concentration)
-                         : f.full_scale_mol_mol;
-    if (!(t > 0.0)) throw flag_error("--temperature", "'" + *o.temperature + "' must be above absolute zero");
-    if (!(p > 0.0)) throw flag_error("--pressure", "'" + *o.pressure + "' must be greater than zero");
-    if (y < 0.0 || y > 1.0)
-        throw flag_error("--concentration", "'" + *o.concentration + "' must be from 0 to 100 %");
+    const double y = o.concentration ? flag_quantity_in("--concentration", *o.concentration,
+                                                        quantity_kind::concentration, concentration_range)
+                                     : f.full_scale_mol_mol;
 
+    // The flags that set the condition name a failure; with none, it is the file's.
+    std::string subject;
+    const auto name_flag = [&subject](const char* flag, const std::optional<std::string>& text) {
+        if (!text) return;
+        if (!subject.empty()) subject += ", ";
+        subject += flag_with_value(flag, *text);
+    };
+    name_flag("--temperature", o.temperature);
+    name_flag("--pressure", o.pressure);
+    name_flag("--concentration", o.concentration);
     const std::string at = " at " + format_temperature(t) + ", " + format_pressure(p);
-    const double current = value_of(counterflux::limiting_current_A(m, t, p, y),
-                                    "the current at " + format_concentration(y) + at);
-    const double sensitivity = value_of(counterflux::sensitivity_A_per_mol_per_mol(m, t, p), "the sensitivity" + at);
-    const double tc = value_of(counterflux::temperature_coefficient_per_K(m, t, p), "the temperature coefficient" + at);
-    const double pc = value_of(counterflux::pressure_coefficient_per_Pa(m, t, p), "the pressure coefficient" + at);
-    const double span = value_of(counterflux::span_factor(m, t, p), "the span factor" + at);
-    const double linearity = value_of(counterflux::linearity_ratio(m, t, p, y),
-                                      "the linearity ratio at " + format_concentration(y) + at);
-    const auto reports = value_of(counterflux::element_reports(m, t, p), "the element reports" + at);
+    // A failure is blamed on the part of the file that cannot be resolved there, if any.
+    const auto get = [&](const auto& r, const std::string& what) {
+        if (!r.ok()) {
+            std::vector<diagnostic> details;
+            if (const auto d = diagnose_condition(f, t, p, format_temperature(t) + ", " + format_pressure(p)))
+                details.push_back(*d);
+            require_ok(r.code, what, subject, details);
+        }
+        return r.value;
+    };
+    const double current = get(counterflux::limiting_current_A(m, t, p, y),
+                               "the current at " + format_concentration(y) + at);
+    const double sensitivity = get(counterflux::sensitivity_A_per_mol_per_mol(m, t, p), "the sensitivity" + at);
+    const double tc = get(counterflux::temperature_coefficient_per_K(m, t, p), "the temperature coefficient" + at);
+    const double pc = get(counterflux::pressure_coefficient_per_Pa(m, t, p), "the pressure coefficient" + at);
+    const double span = get(counterflux::span_factor(m, t, p), "the span factor" + at);
+    const double linearity =
+        get(counterflux::linearity_ratio(m, t, p, y), "the linearity ratio at " + format_concentration(y) + at);
+    const auto reports = get(counterflux::element_reports(m, t, p), "the element reports" + at);
 
     if (o.json) {
         nlohmann::json j;

@@ -1,7 +1,9 @@
 // tools/verbs/diffusivity.cpp - `counterflux diffusivity A B`: the binary
 // diffusivity of a gas pair from the library's correlations.
 #include <memory>
+#include <optional>
 #include <ostream>
+#include <string>
 
 #include <CLI/CLI.hpp>
 #include <nlohmann/json.hpp>
@@ -34,21 +36,29 @@ const counterflux::gas_data& gas_argument(const std::string& name, const char* w
 int run_diffusivity(const diffusivity_options& o, std::ostream& out) {
     const auto& a = gas_argument(o.gas_a, "A");
     const auto& b = gas_argument(o.gas_b, "B");
-    const double t = flag_quantity("--temperature", o.temperature, quantity_kind::temperature);
-    const double p = flag_quantity("--pressure", o.pressure, quantity_kind::pressure);
-    if (!(t > 0.0)) throw flag_error("--temperature", "'" + o.temperature + "' must be above absolute zero");
-    if (!(p > 0.0)) throw flag_error("--pressure", "'" + o.pressure + "' must be greater than zero");
-
     counterflux::diffusivity_method method = counterflux::diffusivity_method::fuller;
     if (o.method == "fuller") method = counterflux::diffusivity_method::fuller;
     else if (o.method == "chapman-enskog") method = counterflux::diffusivity_method::chapman_enskog;
     else throw flag_error("--method", "'" + o.method + "' is not fuller or chapman-enskog");
 
+    const double t = flag_quantity("--temperature", o.temperature, quantity_kind::temperature);
+    const std::string t_flag = flag_with_value("--temperature", o.temperature);
+    // Chapman-Enskog first: its own limit, the fit range of the collision
+    // integral in T*, says more than the general temperature range.
+    const auto fit_problem = [&]() -> std::optional<std::string> {
+        if (method != counterflux::diffusivity_method::chapman_enskog) return std::nullopt;
+        return chapman_enskog_fit_problem(a, b, t);
+    };
+    if (const auto fit = fit_problem()) throw flag_error(t_flag, *fit + "; use --method fuller");
+    (void)flag_quantity_in("--temperature", o.temperature, quantity_kind::temperature, temperature_range);
+    const double p = flag_quantity_in("--pressure", o.pressure, quantity_kind::pressure, pressure_range);
+
     const counterflux::result<double> d = method == counterflux::diffusivity_method::fuller
                                               ? counterflux::fuller_diffusivity(a, b, t, p)
                                               : counterflux::chapman_enskog_diffusivity(a, b, t, p);
     const std::string pair = std::string(a.formula) + "-" + b.formula;
-    const double value = value_of(d, "the diffusivity of " + pair);
+    const double value =
+        value_of(d, "the diffusivity of " + pair, t_flag + ", " + flag_with_value("--pressure", o.pressure));
 
     if (o.json) {
         nlohmann::json j;
