@@ -3,56 +3,24 @@
 // model (built by the same sensor-file reader).
 #include <doctest/doctest.h>
 
-#include <array>
 #include <cstdio>
 #include <string>
-#include <sys/wait.h>
+#include <vector>
 
 #include <nlohmann/json.hpp>
 
 #include <counterflux/counterflux.hpp>
 
+#include "command_runner.hpp"
 #include "sensor_file.hpp"
 
 namespace {
 
-const std::string command = COUNTERFLUX_COMMAND;
+using counterflux_command_test::run;
+using counterflux_command_test::run_json;
+using counterflux_command_test::run_result;
+
 const std::string examples = COUNTERFLUX_SOURCE_DIR "/examples/";
-
-struct run_result {
-    int status;
-    std::string out;
-};
-
-std::string shell_quote(const std::string& s) {
-    std::string q = "'";
-    for (char c : s) {
-        if (c == '\'') q += "'\\''";
-        else q += c;
-    }
-    return q + "'";
-}
-
-// Runs the command with args (each quoted), capturing standard output.
-run_result run(const std::vector<std::string>& args) {
-    std::string line = shell_quote(command);
-    for (const auto& a : args) line += " " + shell_quote(a);
-    line += " 2>/dev/null";
-    FILE* pipe = ::popen(line.c_str(), "r");
-    REQUIRE(pipe != nullptr);
-    std::string out;
-    std::array<char, 4096> buffer{};
-    std::size_t n = 0;
-    while ((n = std::fread(buffer.data(), 1, buffer.size(), pipe)) > 0) out.append(buffer.data(), n);
-    const int raw = ::pclose(pipe);
-    return {WIFEXITED(raw) ? WEXITSTATUS(raw) : -1, out};
-}
-
-nlohmann::json run_json(const std::vector<std::string>& args) {
-    const run_result r = run(args);
-    REQUIRE(r.status == 0);
-    return nlohmann::json::parse(r.out);
-}
 
 // JSON round-trips doubles exactly; allow only the last-digit noise of printing.
 void same(const nlohmann::json& j, const char* key, double library) {
