@@ -297,8 +297,7 @@ void read_sensor(reader& r, const toml::table& t, sensor_file& out, const source
         if (!s) return {nullptr, {}, {}};
         const auto found = counterflux::find_gas(s->value.c_str());
         if (!found.ok() || found.value == nullptr) {
-            r.error(s->place, "unknown gas " + s->text + " for " + in_quotes(dotted) + "; known formulas: " +
-                                  known_gas_formulas());
+            r.error(s->place, "unknown gas " + s->text + " for " + in_quotes(dotted) + unknown_gas_hint(s->value));
             return {nullptr, s->place, s->text};
         }
         return {found.value, s->place, s->text};
@@ -716,6 +715,29 @@ std::optional<diagnostic> diagnose_condition(const sensor_file& f, double t, dou
                                      ") cannot be resolved at " + condition + ": " + counterflux::describe(e.code)};
     }
     return std::nullopt;
+}
+
+namespace {
+
+bool same_ignoring_case(std::string_view a, std::string_view b) noexcept {
+    const auto lower = [](char c) { return (c >= 'A' && c <= 'Z') ? static_cast<char>(c - 'A' + 'a') : c; };
+    if (a.size() != b.size()) return false;
+    for (std::size_t i = 0; i < a.size(); ++i)
+        if (lower(a[i]) != lower(b[i])) return false;
+    return true;
+}
+
+}  // namespace
+
+std::string unknown_gas_hint(const std::string& name) {
+    std::string out;
+    for (std::size_t i = 0; i < counterflux::gas_count; ++i)
+        if (same_ignoring_case(counterflux::gas_table[i].formula, name)) {
+            out = std::string("; did you mean '") + counterflux::gas_table[i].formula +
+                  "'? (formulas are case-sensitive)";
+            break;
+        }
+    return out + "; known formulas: " + known_gas_formulas() + " (or their English names, in any case)";
 }
 
 std::string known_gas_formulas() {

@@ -94,6 +94,10 @@ sensor_file parse_sensor_file(std::string_view text, const std::string& path);
 /// Known gas formulas, comma-separated (for messages).
 std::string known_gas_formulas();
 
+/// What to say after "unknown gas 'name'": a formula that differs only in case
+/// ("; did you mean 'CO'? formulas are case-sensitive"), then the known formulas.
+std::string unknown_gas_hint(const std::string& name);
+
 /// Edit distance (optimal string alignment: insert, delete, substitute, swap).
 std::size_t edit_distance(std::string_view a, std::string_view b);
 

@@ -7,6 +7,8 @@
 #include <filesystem>
 #include <fstream>
 #include <limits>
+#include <set>
+#include <sstream>
 #include <string>
 
 #include <sys/stat.h>
@@ -370,4 +372,45 @@ TEST_CASE("sensor file: a model that fails at the reference condition is blamed 
     // diagnose_condition at another condition: nothing to blame for a good file.
     const sensor_file good = parse_sensor_file(minimal, "test.toml");
     CHECK_FALSE(counterflux::tool::diagnose_condition(good, 300.0, 1e5, "here").has_value());
+}
+
+TEST_CASE("sensor file: gas formulas are case-sensitive, English names are not") {
+    const auto with_target = [](const std::string& target) {
+        std::string text = minimal;
+        text.replace(text.find("\"CO\""), 4, "\"" + target + "\"");
+        return text;
+    };
+    CHECK(parse_sensor_file(with_target("carbon monoxide"), "test.toml").model.target->formula == std::string("CO"));
+    CHECK(parse_sensor_file(with_target("Carbon Monoxide"), "test.toml").model.target->formula == std::string("CO"));
+    const std::string e = first_line(with_target("co"));
+    CHECK(e.rfind("test.toml:3:10: error: unknown gas \"co\" for 'sensor.target'; did you mean 'CO'?", 0) == 0);
+    CHECK(e.find("case-sensitive") != std::string::npos);
+    CHECK(first_line(with_target("CH3OH")).find("did you mean") == std::string::npos);
+}
+
+TEST_CASE("docs/sensor-file.md lists exactly the gases of the library's table") {
+    std::ifstream in(COUNTERFLUX_SOURCE_DIR "/docs/sensor-file.md");
+    REQUIRE(in);
+    std::ostringstream text;
+    text << in.rdbuf();
+    const std::string doc = text.str();
+    const auto start = doc.find("holds exactly these gases");
+    REQUIRE(start != std::string::npos);
+    const auto end = doc.find("\n\n", doc.find("|---", start));
+    const std::string table = doc.substr(start, end - start);
+    // Every "| `F` | name |" cell pair of the table.
+    std::set<std::string> listed;
+    for (std::size_t at = table.find("| `"); at != std::string::npos; at = table.find("| `", at + 1)) {
+        const auto close = table.find('`', at + 3);
+        const std::string formula = table.substr(at + 3, close - at - 3);
+        const auto name_begin = table.find("| ", close) + 2;
+        const std::string name = table.substr(name_begin, table.find(" |", name_begin) - name_begin);
+        const auto g = counterflux::find_gas(formula.c_str());
+        CAPTURE(formula);
+        REQUIRE(g.ok());
+        CHECK(g.value->formula == formula);
+        CHECK(g.value->name == name);
+        listed.insert(formula);
+    }
+    CHECK(listed.size() == counterflux::gas_count);
 }

@@ -26,7 +26,7 @@ const counterflux::gas_data& gas_argument(const std::string& name, const char* w
     if (!found.ok() || found.value == nullptr) {
         source_place place;
         place.subject = which;
-        throw input_error(place, "unknown gas '" + name + "'; known formulas: " + known_gas_formulas());
+        throw input_error(place, "unknown gas '" + name + "'" + unknown_gas_hint(name));
     }
     return *found.value;
 }
