@@ -14,6 +14,7 @@
 #include <cmath>
 
 #include "constants.hpp"
+#include "detail/checked.hpp"
 #include "detail/math.hpp"
 #include "status.hpp"
 
@@ -28,7 +29,7 @@ inline result<T> zero_current_A(T a_A, T b_per_K, T reference_temperature_K, T t
     T x = b_per_K * (temperature_K - reference_temperature_K);
     status s = status::ok;
     if (x > detail::max_exponent<T>()) { x = detail::max_exponent<T>(); s = status::above_range; }
-    return {detail::finite_or_max(a_A * std::exp(x)), s};
+    return detail::checked(a_A * std::exp(x), s);
 }
 
 /// Saturation vapour pressure of water at temperature T (Alduchov & Eskridge), in Pa.
@@ -44,7 +45,7 @@ inline result<T> saturation_pressure_Pa(T temperature_K) noexcept {
     if (t > T(50)) s = status::above_range;
     // Far below the fit range (t < -243.04 degC) the fit's exponent changes
     // sign and can overflow: the value is then saturated (still below_range).
-    return {detail::finite_or_max(T(610.94) * std::exp(T(17.625) * t / (t + T(243.04)))), s};
+    return detail::checked(T(610.94) * std::exp(T(17.625) * t / (t + T(243.04))), s);
 }
 
 /// Dry-basis mole fraction y / (1 - p_w / P) of a reading y taken in gas with
@@ -70,8 +71,9 @@ inline result<T> dry_mole_fraction(T mole_fraction, T relative_humidity, T tempe
     return {dry, s};
 }
 
-/// ISO 2533 standard-atmosphere pressure at altitude h (m, troposphere 0 .. 11000), in Pa.
-/// Outside the troposphere the altitude is clamped and below_range / above_range set.
+/// ISO 2533 standard-atmosphere pressure at altitude h (m), in Pa, for -5000 ..
+/// 11000 m (the table's lower end to the tropopause); outside that the altitude
+/// is clamped and below_range / above_range set.
 template <class T>
 inline result<T> standard_pressure_at_altitude_Pa(T altitude_m) noexcept {
     if (!detail::finite(altitude_m)) return {standard_atmosphere_Pa<T>, status::not_finite};

@@ -66,12 +66,17 @@ constexpr status check_positive(T x) noexcept {
 }  // namespace detail
 
 /// Neufeld-Janzen-Aziz fit of the diffusion collision integral Omega_D(T*),
-/// T* = k T / eps_AB; dimensionless. Valid 0.3 <= T* <= 100 (fit range).
+/// T* = k T / eps_AB; dimensionless. The fit holds for 0.3 <= T* <= 100: outside
+/// it the value is computed and out_of_domain set; T* not > 0 gives 0 with
+/// out_of_domain (not_finite for a non-finite T*).
 template <class T>
-inline T neufeld_collision_integral(T reduced_temperature) noexcept {
+inline result<T> neufeld_collision_integral(T reduced_temperature) noexcept {
     const T ts = reduced_temperature;
-    return T(1.06036) / std::pow(ts, T(0.15610)) + T(0.19300) / std::exp(T(0.47635) * ts) +
-           T(1.03587) / std::exp(T(1.52996) * ts) + T(1.76474) / std::exp(T(3.89411) * ts);
+    if (!detail::finite(ts)) return {T(0), status::not_finite};
+    if (!(ts > T(0))) return {T(0), status::out_of_domain};
+    const T omega = T(1.06036) / std::pow(ts, T(0.15610)) + T(0.19300) / std::exp(T(0.47635) * ts) +
+                    T(1.03587) / std::exp(T(1.52996) * ts) + T(1.76474) / std::exp(T(3.89411) * ts);
+    return detail::checked(omega, (ts < T(0.3) || ts > T(100)) ? status::out_of_domain : status::ok);
 }
 
 /// Fuller-Schettler-Giddings D_AB of gases a and b, in m2/s.
@@ -100,12 +105,13 @@ inline result<T> chapman_enskog_diffusivity(const gas_data& a, const gas_data& b
     const T sigma = (static_cast<T>(a.lj_sigma_angstrom) + static_cast<T>(b.lj_sigma_angstrom)) / T(2);
     const T eps = std::sqrt(static_cast<T>(a.lj_epsilon_over_k_K) * static_cast<T>(b.lj_epsilon_over_k_K));
     const T t_star = temperature_K / eps;
-    const T omega = neufeld_collision_integral(t_star);
+    const result<T> omega_fit = neufeld_collision_integral(t_star);  // flags T* outside the fit
+    if (!(omega_fit.value > T(0))) return {T(0), omega_fit.code | status::out_of_domain};
+    const T omega = omega_fit.value;
     const T p_bar = pressure_Pa / T(1.0e5);
     const T d_cm2_s =
         T(0.00266) * std::pow(temperature_K, T(1.5)) / (p_bar * std::sqrt(m_ab) * sigma * sigma * omega);
-    const status fit = (t_star < T(0.3) || t_star > T(100)) ? status::out_of_domain : status::ok;
-    return detail::checked(d_cm2_s * T(1.0e-4), fit);
+    return detail::checked(d_cm2_s * T(1.0e-4), omega_fit.code);
 }
 
 /// A measured D_ref at (T_ref, P_ref) carried to (T, P): D_ref (T/T_ref)^m (P_ref/P), in m2/s.

@@ -215,10 +215,12 @@ inline result<T> dusty_gas_flux(T total_concentration_mol_m3, T diffusivity_m2_s
                         alpha, y1, y2);
 }
 
-/// Bosanquet combination 1/D = 1/D_AB + 1/D_K, m2/s.
+/// Bosanquet combination 1/D = 1/D_AB + 1/D_K, m2/s (either may be +inf for no
+/// resistance of that kind); 0 with out_of_domain unless both are > 0.
 template <class T>
-constexpr T bosanquet_diffusivity(T diffusivity_m2_s, T knudsen_diffusivity_m2_s) noexcept {
-    return T(1) / (T(1) / diffusivity_m2_s + T(1) / knudsen_diffusivity_m2_s);
+constexpr result<T> bosanquet_diffusivity(T diffusivity_m2_s, T knudsen_diffusivity_m2_s) noexcept {
+    if (!(diffusivity_m2_s > T(0)) || !(knudsen_diffusivity_m2_s > T(0))) return {T(0), status::out_of_domain};
+    return detail::checked(T(1) / (T(1) / diffusivity_m2_s + T(1) / knudsen_diffusivity_m2_s));
 }
 
 /// Arrhenius permeability Pi(T) = Pi_ref exp[-(E_P/R)(1/T - 1/T_ref)], in the unit of Pi_ref.

@@ -137,7 +137,7 @@ inline result<T> sensitivity_A_per_mol_per_mol(const sensor_model<T, N>& m, T te
     const T resistance = dilute_resistance_s_per_mol(st.value);
     // A resistance that overflows or underflows (extreme T, P or geometry) has no meaningful sensitivity.
     if (!(detail::finite(resistance) && resistance > T(0))) return {T(0), st.code | status::out_of_domain};
-    return {detail::finite_or_max(static_cast<T>(m.electrons) * faraday_C_mol<T> / resistance), st.code};
+    return detail::checked(static_cast<T>(m.electrons) * faraday_C_mol<T> / resistance, st.code);
 }
 
 /// Limiting current at mole fraction y outside the barrier and (T, P), in A.
@@ -202,7 +202,8 @@ inline T derivative_step(T x) noexcept {
 template <class T, std::size_t N>
 inline result<T> reading_sensitivity(const sensor_model<T, N>& m, T temperature_K, T pressure_Pa) noexcept {
     const result<T> s = sensitivity_A_per_mol_per_mol(m, temperature_K, pressure_Pa);
-    if (m.reading == reading_kind::partial_pressure && pressure_Pa > T(0)) return {s.value / pressure_Pa, s.code};
+    if (m.reading == reading_kind::partial_pressure && pressure_Pa > T(0))
+        return detail::checked(s.value / pressure_Pa, s.code);
     return s;
 }
 
@@ -212,8 +213,10 @@ inline result<T> log_slope(const sensor_model<T, N>& m, T t_hi, T p_hi, T t_lo, 
     const result<T> hi = reading_sensitivity(m, t_hi, p_hi);
     const result<T> lo = reading_sensitivity(m, t_lo, p_lo);
     const status code = hi.code | lo.code;
-    if (!(hi.value > T(0)) || !(lo.value > T(0)) || !(h > T(0))) return {T(0), code | status::out_of_domain};
-    return {(std::log(hi.value) - std::log(lo.value)) / (T(2) * h), code};
+    const T top = detail::max_finite<T>();
+    if (!(hi.value > T(0)) || !(lo.value > T(0)) || !(hi.value < top) || !(lo.value < top) || !(h > T(0)))
+        return {T(0), code | status::out_of_domain};  // a failed or saturated sensitivity has no slope
+    return detail::checked((std::log(hi.value) - std::log(lo.value)) / (T(2) * h), code);
 }
 
 }  // namespace detail
@@ -228,7 +231,7 @@ inline result<T> span_factor(const sensor_model<T, N>& m, T temperature_K, T pre
     const result<T> s_ref = detail::reading_sensitivity(m, m.reference_temperature_K, m.reference_pressure_Pa);
     const status code = s.code | s_ref.code;
     if (!(s.value > T(0)) || !(s_ref.value > T(0))) return {T(1), code | status::out_of_domain};
-    return {detail::finite_or_max(s.value / s_ref.value), code};
+    return detail::checked(s.value / s_ref.value, code);
 }
 
 /// Temperature coefficient of the span, d ln s / dT at (T, P), in 1/K
@@ -260,7 +263,7 @@ inline result<T> linearity_ratio(const sensor_model<T, N>& m, T temperature_K, T
     if (!(y > T(0))) return {T(1), code};
     const T linear = s.value * y;
     if (!(linear > T(0))) return {T(1), code};  // S y underflows: the dilute limit, where the ratio is 1
-    return {detail::finite_or_max(i.value / linear), code};
+    return detail::checked(i.value / linear, code);
 }
 
 /// What the design report says of one element.

@@ -234,13 +234,14 @@ static_assert(cf::alpha_from_flux_ratio(cf::stagnant_flux_ratio<double>) == 1.0,
 static_assert(cf::alpha_from_flux_ratio(-2.0) == -1.0,
               "r = -2: alpha = -1 (docs/models.md sec. 1)");
 // Bosanquet: 1/D = 1/D_AB + 1/D_K (Mason & Malinauskas 1983; docs/models.md sec. 1).
-static_assert(cf::bosanquet_diffusivity(2.0, 2.0) == 1.0, "two equal resistances in series");
-static_assert(close(cf::bosanquet_diffusivity(1.0e-5, 4.0e-5), 1.0 / (1.0 / 1.0e-5 + 1.0 / 4.0e-5),
+static_assert(cf::bosanquet_diffusivity(2.0, 2.0).value == 1.0, "two equal resistances in series");
+static_assert(close(cf::bosanquet_diffusivity(1.0e-5, 4.0e-5).value, 1.0 / (1.0 / 1.0e-5 + 1.0 / 4.0e-5),
                     1e-15),
               "Bosanquet");
-static_assert(close(cf::bosanquet_diffusivity(3.0e-5, std::numeric_limits<double>::infinity()),
+static_assert(close(cf::bosanquet_diffusivity(3.0e-5, std::numeric_limits<double>::infinity()).value,
                     3.0e-5, 1e-15),
               "D_K -> inf leaves D_AB");
+static_assert(cf::bosanquet_diffusivity(-1.0, 2.0).code == cf::status::out_of_domain, "D must be > 0");
 
 constexpr cf::element_transport<double> ge =
     cf::gas_element(2.0e-5, std::numeric_limits<double>::infinity(), 1.0e-3);

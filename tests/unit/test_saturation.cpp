@@ -100,3 +100,66 @@ TEST_CASE_TEMPLATE("saturation: dry_mole_fraction clamps its input and result to
     CHECK(over.value == T(1));
     CHECK(cf::has(over.code, cf::status::above_range));
 }
+
+TEST_CASE("saturation: an overflowing sensitivity is flagged, and has no slope") {
+    // A 1 km bore 1e-37 m long: S = n F A c D / L overflows float.
+    auto m = sensor<float>("CO", "air", 2u, cf::equimolar_flux_ratio<float>);
+    m = add(m, cf::make_capillary(1.0e3f, 1.0e-37f, 1u, false, false));
+    for (const cf::reading_kind kind : {cf::reading_kind::mole_fraction, cf::reading_kind::partial_pressure}) {
+        m.reading = kind;
+        const float p = kind == cf::reading_kind::partial_pressure ? 0.5f : 101325.0f;
+        const cf::result<float> s = cf::sensitivity_A_per_mol_per_mol(m, 293.15f, p);
+        CHECK(std::isfinite(s.value));
+        CHECK(cf::has(s.code, cf::status::out_of_domain));
+        const cf::result<float> kt = cf::temperature_coefficient_per_K(m, 293.15f, p);
+        const cf::result<float> kp = cf::pressure_coefficient_per_Pa(m, 293.15f, p);
+        CHECK(std::isfinite(kt.value));
+        CHECK(std::isfinite(kp.value));
+        CHECK(cf::has(kt.code, cf::status::out_of_domain));
+        CHECK(cf::has(kp.code, cf::status::out_of_domain));
+        const cf::result<float> span = cf::span_factor(m, 293.15f, p);
+        CHECK(std::isfinite(span.value));
+        CHECK(!span.ok());
+    }
+    // A baseline that overflows: a exp(b dT) with b dT = 70 and a = 1e10 A.
+    const cf::result<float> i0 = cf::zero_current_A(1.0e10f, 0.1f, 293.15f, 1000.0f);
+    CHECK(std::isfinite(i0.value));
+    CHECK(cf::has(i0.code, cf::status::out_of_domain));
+}
+
+TEST_CASE_TEMPLATE("ambient: saturation pressure of water against the IAPWS values", T, float, double) {
+    // Saturation pressure over liquid water, IAPWS-95 (Wagner & Pruss, J. Phys.
+    // Chem. Ref. Data 31, 387 (2002)): 611.2 Pa at 0 degC, 2339.3 Pa at 20 degC,
+    // 7384.9 Pa at 40 degC (values from memory). Alduchov & Eskridge (J. Appl.
+    // Meteor. 35, 601 (1996)) state their eq. 21 within 0.4 % over -40 .. 50 degC.
+    const double t_c[] = {0.0, 20.0, 40.0};
+    const double iapws_Pa[] = {611.2, 2339.3, 7384.9};
+    for (int k = 0; k < 3; ++k) {
+        const cf::result<T> e = cf::saturation_pressure_Pa(static_cast<T>(t_c[k] + 273.15));
+        REQUIRE(e.ok());
+        CHECK(std::fabs(static_cast<double>(e.value) / iapws_Pa[k] - 1.0) < 0.004);
+    }
+}
+
+TEST_CASE_TEMPLATE("ambient: ISO 2533 standard atmosphere against its table", T, float, double) {
+    // ISO 2533:1975 (= U.S. Standard Atmosphere 1976 below 32 km) tabulates
+    // 89 874.6 Pa at 1000 m, 79 495.2 Pa at 2000 m and 22 632 Pa at 11 000 m
+    // geopotential height (values from memory).
+    const double h_m[] = {0.0, 1000.0, 2000.0, 11000.0};
+    const double table_Pa[] = {101325.0, 89874.6, 79495.2, 22632.0};
+    for (int k = 0; k < 4; ++k) {
+        const cf::result<T> p = cf::standard_pressure_at_altitude_Pa(static_cast<T>(h_m[k]));
+        REQUIRE(p.ok());
+        CHECK(std::fabs(static_cast<double>(p.value) / table_Pa[k] - 1.0) < 2.0e-4);
+    }
+}
+
+TEST_CASE_TEMPLATE("ambient: zero current doubles where b dT = ln 2", T, float, double) {
+    // I_0(T) = a exp(b (T - T_ref)) (common practice, no source).
+    const T b = T(0.07);
+    const T dt = std::log(T(2)) / b;
+    const cf::result<T> i0 = cf::zero_current_A(T(2.0e-9), b, T(293.15), T(293.15) + dt);
+    REQUIRE(i0.ok());
+    CHECK(rel_diff(i0.value, T(4.0e-9)) <= pick<T>(1e-12, 1e-5f));
+    CHECK(cf::zero_current_A(T(2.0e-9), b, T(293.15), T(293.15)).value == T(2.0e-9));
+}

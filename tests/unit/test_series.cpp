@@ -326,8 +326,11 @@ TEST_CASE("series: float round trips current <-> concentration, dust filter + ca
 }
 
 // ---------------------------------------------------------------------------
-// Never NaN, never inf: every public function, fed finite inputs, returns a
-// finite value (with whatever status it sets). Two sweeps:
+// Never NaN, never inf: every public function that returns a result, fed
+// finite inputs, returns a finite value (with whatever status it sets). The
+// plain constexpr geometry helpers (barrier_area_m2, effective_length_m,
+// dilute_resistance_s_per_mol) are arithmetic on their inputs; resolve() and
+// the signal functions check what they give. Two sweeps:
 //   - an extreme grid (+-1e300 and 1e-300 in double, +-1e30 and 1e-30 in
 //     float, zero, negatives): the value must be finite too; an overflow
 //     (T = 1e300 K, P = 1e-300 Pa) is saturated to +-max and flagged.
@@ -454,15 +457,14 @@ void sweep(const value_grid<T>& v) {
         checker fuller("fuller_diffusivity", fin), ce("chapman_enskog_diffusivity", fin),
             knud("knudsen_diffusivity", fin), mfp("mean_free_path", fin), kn("knudsen_number", fin),
             sat("saturation_pressure_Pa", fin), alt("standard_pressure_at_altitude_Pa", fin),
-            neu("neufeld_collision_integral (T* > 0)", fin), c2k("celsius_to_kelvin", fin);
+            neu("neufeld_collision_integral", fin), bos("bosanquet_diffusivity", fin), c2k("celsius_to_kelvin", fin);
         for (std::size_t i = 0; i < n; ++i) {
             sat.check(cf::saturation_pressure_Pa(x[i]).value, [&] { return text(x[i]); });
             alt.check(cf::standard_pressure_at_altitude_Pa(x[i]).value, [&] { return text(x[i]); });
             c2k.check(cf::celsius_to_kelvin(x[i]) + cf::kelvin_to_celsius(x[i]),
                       [&] { return text(x[i]); });
-            // The collision-integral fit takes T* = k T / eps, which is > 0 for any T > 0.
-            if (x[i] > T(0))
-                neu.check(cf::neufeld_collision_integral(x[i]), [&] { return text(x[i]); });
+            neu.check(cf::neufeld_collision_integral(x[i]).value, [&] { return text(x[i]); });
+            bos.check(cf::bosanquet_diffusivity(x[i], x[(i + 3) % n]).value, [&] { return text(x[i]); });
             for (std::size_t j = 0; j < n; ++j) {
                 fuller.check(cf::fuller_diffusivity(co, air, x[i], x[j]).value,
                              [&] { return text(x[i], x[j]); });
@@ -541,6 +543,8 @@ void sweep(const value_grid<T>& v) {
         for (int s = 0; s < sensor_samples; ++s) {
             cf::sensor_model<T, 4> m =
                 sensor<T>(g.next(2) == 0 ? "CO" : "O2", "air", 2u, flux_ratios[g.next(6)]);
+            // Half the sensors report partial pressure: S / P and its slopes are on that path.
+            if (g.next(2) == 0) m.reading = cf::reading_kind::partial_pressure;
             const std::size_t count = 1 + g.next(3);
             std::string desc = text("ratio", m.flux_ratio);
             for (std::size_t k = 0; k < count; ++k) {
