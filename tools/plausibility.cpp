@@ -28,6 +28,7 @@ std::string value_range::outside() const {
 // Common practice, not a published limit (see the header).
 const value_range length_range{1.0e-9, 1.0, true, true, "a length from 1 nm to 1 m", "1 nm .. 1 m", ""};
 const value_range area_range{1.0e-12, 1.0, true, true, "an area from 1e-12 m2 to 1 m2", "1e-12 m2 .. 1 m2", ""};
+const value_range porosity_range{1.0e-4, 1.0, true, true, "a porosity from 1e-4 to 1", "1e-4 .. 1", ""};
 const value_range temperature_range{100.0, 1000.0, true, true, "a temperature from 100 K to 1000 K", "100 K .. 1000 K",
                                     "the range of the diffusivity correlations"};
 const value_range pressure_range{100.0, 1.0e7, true, true, "a pressure from 100 Pa to 10 MPa", "100 Pa .. 10 MPa",

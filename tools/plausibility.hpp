@@ -42,6 +42,9 @@ struct value_range {
 extern const value_range length_range;
 /// Areas of porous and membrane elements: 1e-12 m2 to 1 m2.
 extern const value_range area_range;
+/// Porosity of a porous element: 1e-4 to 1 (a subnormal porosity would pass a
+/// plain "above zero" check and overflow the element's resistivity).
+extern const value_range porosity_range;
 /// Temperatures (reference, table axes, measured-value condition, --temperature):
 /// 100 K to 1000 K, the range the Chapman-Enskog / Neufeld and Fuller fits were
 /// made over and where the background stays a low-density gas.

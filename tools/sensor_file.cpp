@@ -5,6 +5,7 @@
 #include <algorithm>
 #include <cerrno>
 #include <cmath>
+#include <cstdlib>
 #include <cstring>
 #include <fstream>
 #include <limits>
@@ -48,11 +49,18 @@ const char* type_name(toml::node_type t) noexcept {
 
 std::string in_quotes(std::string_view s) { return "'" + std::string(s) + "'"; }
 
+// A TOML number as the file wrote it, as near as a double allows: the shortest
+// decimal that reads back to v (1e-310 stays "1e-310", 0.1 stays "0.1").
 std::string format_number(double v) {
-    std::ostringstream os;
-    os.precision(15);
-    os << v;
-    return os.str();
+    std::string text;
+    for (int digits = 1; digits <= 17; ++digits) {
+        std::ostringstream os;
+        os.precision(digits);
+        os << v;
+        text = os.str();
+        if (!std::isfinite(v) || std::strtod(text.c_str(), nullptr) == v) break;
+    }
+    return text;
 }
 
 bool is_c_identifier(std::string_view s) noexcept {
@@ -537,8 +545,7 @@ void read_barrier(reader& r, const toml::table& t, std::size_t index, sensor_fil
         const auto pore = q("pore_diameter", kind::length, knudsen);
         ok &= ranged(thickness, "thickness", length_range);
         ok &= ranged(area, "area", area_range);
-        ok &= porosity && r.require_that(porosity->value > 0.0 && porosity->value <= 1.0, *porosity,
-                                         prefix + "porosity", "expected 0 < porosity <= 1");
+        ok &= ranged(porosity, "porosity", porosity_range);
         ok &= tortuosity && r.require_that(tortuosity->value >= 1.0 && tortuosity->value <= 100.0, *tortuosity,
                                            prefix + "tortuosity", "expected 1 <= tortuosity <= 100");
         if (pore) ok &= ranged(pore, "pore_diameter", length_range);

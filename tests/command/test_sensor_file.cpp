@@ -336,6 +336,20 @@ TEST_CASE("sensor file: implausible values are refused at their key, with the ra
           "test.toml:6:14: error: 'sensor.flux_ratio' = \"1e999\" is out of range; expected a value from -10 to 10");
 }
 
+TEST_CASE("sensor file: porosity from 1e-4 to 1, refused at the key") {
+    const auto porous = [](const std::string& porosity) {
+        return first_line(minimal + "\n[[barrier]]\ntype = \"porous\"\nthickness = \"1 mm\"\narea = \"10 mm2\"\n"
+                                    "porosity = " + porosity + "\ntortuosity = 2\npore_diameter = \"1 um\"\n");
+    };
+    CHECK(porous("1e-4").empty());
+    CHECK(porous("1").empty());
+    CHECK(porous("0.35").empty());
+    CHECK(porous("9.9e-5") ==
+          "test.toml:25:12: error: 'barrier[2].porosity' = 9.9e-05 is out of range; expected a porosity from 1e-4 to 1");
+    CHECK(porous("1.01").find("'barrier[2].porosity' = 1.01 is out of range") != std::string::npos);
+    CHECK(porous("0").find("expected a porosity from 1e-4 to 1") != std::string::npos);
+}
+
 TEST_CASE("sensor file: membrane permeability and activation energy ranges") {
     const auto membrane = [](const std::string& permeability, const std::string& energy) {
         return first_line(minimal + "\n[[barrier]]\ntype = \"membrane\"\nthickness = \"25 um\"\narea = \"10 mm2\"\n"
@@ -362,12 +376,30 @@ TEST_CASE("sensor file: a model that fails at the reference condition is blamed 
     CHECK(e.find("T* = T / sqrt(eps_H2O eps_NH3)") != std::string::npos);
     CHECK(e.find("Neufeld fit range 0.3 .. 100") != std::string::npos);
 
-    // An element whose resistivity overflows: at its [[barrier]] header, with the library's status text.
+    // An element whose resistivity overflows: at its [[barrier]] header, with the
+    // library's status text. A porosity that small is refused at its key now
+    // (porosity_range); the element is made unresolvable after reading.
     const std::string porous = minimal + "\n[[barrier]]\ntype = \"porous\"\nthickness = \"1 mm\"\narea = \"10 mm2\"\n"
-                                         "porosity = 1e-310\ntortuosity = 2\npore_diameter = \"1 um\"\n";
-    CHECK(first_line(porous) == "test.toml:21:1: error: [[barrier]] #2 (porous) cannot be resolved at the reference "
-                                "condition (20 C (293.15 K), 101.325 kPa): " +
-                                    std::string(counterflux::describe(counterflux::status::not_finite)));
+                                         "porosity = 0.4\ntortuosity = 2\npore_diameter = \"1 um\"\n";
+    sensor_file tampered = parse_sensor_file(porous, "test.toml");
+    REQUIRE(tampered.model.barriers.count == 2);
+    tampered.model.barriers.elements[1].porosity = 1e-310;
+    const auto blamed = counterflux::tool::diagnose_condition(tampered, 293.15, 101325.0, "the reference condition");
+    REQUIRE(blamed.has_value());
+    CHECK(counterflux::tool::format_diagnostic(*blamed) ==
+          "test.toml:21:1: error: [[barrier]] #2 (porous) cannot be resolved at the reference condition: " +
+              std::string(counterflux::describe(counterflux::status::not_finite)));
+    // From a file, the path is reached by a permeability above zero (the only
+    // lower bound of permeability_range) but so small that 1/permeability overflows.
+    const std::string membrane = minimal + "\n[[barrier]]\ntype = \"membrane\"\nthickness = \"25 um\"\n"
+                                           "area = \"10 mm2\"\npermeability = \"1e-320 mol/(m s Pa)\"\n";
+    CHECK(first_line(membrane) == "test.toml:21:1: error: [[barrier]] #2 (membrane) cannot be resolved at the "
+                                  "reference condition (20 C (293.15 K), 101.325 kPa): " +
+                                      std::string(counterflux::describe(counterflux::status::not_finite)));
+    // A porosity below 1e-4 is refused at the key, with the range.
+    CHECK(first_line(minimal + "\n[[barrier]]\ntype = \"porous\"\nthickness = \"1 mm\"\narea = \"10 mm2\"\n"
+                               "porosity = 1e-310\ntortuosity = 2\npore_diameter = \"1 um\"\n") ==
+          "test.toml:25:12: error: 'barrier[2].porosity' = 1e-310 is out of range; expected a porosity from 1e-4 to 1");
 
     // diagnose_condition at another condition: nothing to blame for a good file.
     const sensor_file good = parse_sensor_file(minimal, "test.toml");
