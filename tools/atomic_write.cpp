@@ -22,14 +22,26 @@ constexpr std::string_view temp_marker = ".tmp-";
 
 std::string system_message(int error_number) { return std::strerror(error_number); }
 
+// How messages name the output: the path the user gave, and the file a
+// symbolic link led to when that differs ("'out.json' (which leads to 'real/out.json')").
+std::string output_name(const std::filesystem::path& requested, const std::filesystem::path& target) {
+    std::string name = "'" + requested.string() + "'";
+    if (target != requested) name += " (which leads to '" + target.string() + "')";
+    return name;
+}
+
+[[noreturn]] void fail(const std::string& name, const std::string& what, int error_number) {
+    throw run_error("cannot write " + name + ": " + what + ": " + system_message(error_number));
+}
+
 [[noreturn]] void fail(const std::filesystem::path& target, const std::string& what, int error_number) {
-    throw run_error("cannot write '" + target.string() + "': " + what + ": " + system_message(error_number));
+    fail(output_name(target, target), what, error_number);
 }
 
 // A stream buffer over a file descriptor that throws on a failed write.
 class fd_buffer : public std::streambuf {
 public:
-    fd_buffer(int fd, const std::filesystem::path& target) : fd_(fd), target_(target), buffer_(1 << 16) {
+    fd_buffer(int fd, const std::string& name) : fd_(fd), name_(name), buffer_(1 << 16) {
         setp(buffer_.data(), buffer_.data() + buffer_.size());
     }
 
@@ -40,7 +52,7 @@ public:
             const ssize_t n = ::write(fd_, p, left);
             if (n < 0) {
                 if (errno == EINTR) continue;
-                fail(target_, "write failed", errno);
+                fail(name_, "write failed", errno);
             }
             p += n;
             left -= static_cast<std::size_t>(n);
@@ -65,7 +77,7 @@ protected:
 
 private:
     int fd_;
-    const std::filesystem::path& target_;
+    const std::string& name_;
     std::vector<char> buffer_;
 };
 
@@ -138,25 +150,27 @@ bool is_atomic_write_temporary(std::string_view name) noexcept {
 }
 
 void atomic_write(const std::filesystem::path& requested, const std::function<void(std::ostream&)>& producer) {
-    if (requested.empty()) throw run_error("cannot write: empty output path");
+    if (requested.empty())
+        throw input_error(source_place{}, "cannot write: the output path is empty; expected a file name");
     if (requested.filename().empty() || requested.filename() == "." || requested.filename() == "..")
         throw input_error(source_place{}, "cannot write '" + requested.string() +
                                               "': it names a directory; expected a file name");
     // Written beside, and renamed over, the file a symbolic link leads to.
     const std::filesystem::path target = resolve_target(requested);
+    const std::string name = output_name(requested, target);
 
     const std::filesystem::path dir = target.has_parent_path() ? target.parent_path() : ".";
     std::string pattern = (dir / ("." + target.filename().string() + std::string(temp_marker) + "XXXXXX")).string();
 
     temp_guard guard;
-    std::vector<char> name(pattern.begin(), pattern.end());
-    name.push_back('\0');
-    guard.fd = ::mkstemp(name.data());
-    if (guard.fd < 0) fail(target, "cannot create a temporary file in '" + dir.string() + "'", errno);
-    guard.path = name.data();
+    std::vector<char> temp_name(pattern.begin(), pattern.end());
+    temp_name.push_back('\0');
+    guard.fd = ::mkstemp(temp_name.data());
+    if (guard.fd < 0) fail(name, "cannot create a temporary file in '" + dir.string() + "'", errno);
+    guard.path = temp_name.data();
 
     {
-        fd_buffer buffer(guard.fd, target);
+        fd_buffer buffer(guard.fd, name);
         std::ostream out(&buffer);
         out.exceptions(std::ios::badbit);
         try {
@@ -165,17 +179,17 @@ void atomic_write(const std::filesystem::path& requested, const std::function<vo
         } catch (const std::ios_base::failure&) {
             // The buffer threw run_error inside a stream operation; the stream
             // turned it into badbit and rethrew as ios failure on some paths.
-            fail(target, "write failed", errno != 0 ? errno : EIO);
+            fail(name, "write failed", errno != 0 ? errno : EIO);
         }
         buffer.flush_all();
     }
 
-    if (::fchmod(guard.fd, new_file_mode(target)) != 0) fail(target, "cannot set permissions", errno);
-    if (::fsync(guard.fd) != 0) fail(target, "fsync failed", errno);
+    if (::fchmod(guard.fd, new_file_mode(target)) != 0) fail(name, "cannot set permissions", errno);
+    if (::fsync(guard.fd) != 0) fail(name, "fsync failed", errno);
     const int fd = guard.fd;
     guard.fd = -1;
-    if (::close(fd) != 0) fail(target, "close failed", errno);
-    if (::rename(guard.path.c_str(), target.c_str()) != 0) fail(target, "rename failed", errno);
+    if (::close(fd) != 0) fail(name, "close failed", errno);
+    if (::rename(guard.path.c_str(), target.c_str()) != 0) fail(name, "rename failed", errno);
     guard.armed = false;
     fsync_directory(dir);
 }

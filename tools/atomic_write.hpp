@@ -19,8 +19,10 @@
 
 namespace counterflux::tool {
 
-/// Writes content to target atomically. Throws input_error for a target that
-/// is not a regular file (see above), run_error for any other failure.
+/// Writes content to target atomically. Throws input_error for an empty path
+/// or a target that is not a regular file (see above), run_error for any other
+/// failure. Messages name target as given and, when a symbolic link led
+/// elsewhere, the file it leads to in parentheses.
 void atomic_write(const std::filesystem::path& target, std::string_view content);
 
 /// Streams what producer writes to target atomically. If producer throws, or a

@@ -194,6 +194,40 @@ TEST_CASE("atomic write: a missing directory is an error, not a crash") {
     }
 }
 
+TEST_CASE("atomic write: an empty path is bad input") {
+    try {
+        atomic_write(fs::path(), std::string("x"));
+        FAIL("no exception");
+    } catch (const input_error& e) {
+        CHECK(std::string(e.what()) == "counterflux: error: cannot write: the output path is empty; expected a file name");
+    }
+}
+
+TEST_CASE("atomic write: a failure through a symbolic link names the link, then where it leads") {
+    scratch s("dangling_missing");
+    // A dangling link into a directory that does not exist.
+    const fs::path link = s.dir / "out.json";
+    fs::create_symlink(fs::path("no_such_dir") / "real.json", link);
+    try {
+        atomic_write(link, std::string("x"));
+        FAIL("no exception");
+    } catch (const run_error& e) {
+        const std::string m = e.what();
+        CAPTURE(m);
+        CHECK(m.rfind("cannot write '" + link.string() + "' (which leads to '" +
+                          (s.dir / "no_such_dir" / "real.json").string() + "'): cannot create a temporary file",
+                      0) == 0);
+    }
+    CHECK(fs::is_symlink(fs::symlink_status(link)));
+    // Without a link, the path is named once.
+    try {
+        atomic_write(s.dir / "no_such_dir" / "f.json", std::string("x"));
+        FAIL("no exception");
+    } catch (const run_error& e) {
+        CHECK(std::string(e.what()).find("which leads to") == std::string::npos);
+    }
+}
+
 TEST_CASE("atomic write: an existing file keeps its permissions") {
     scratch s("mode");
     const fs::path target = s.dir / "f.h";

@@ -33,6 +33,7 @@ const char* flux_description(const sensor_file& f) {
 }  // namespace
 
 int run_design(const design_options& o, std::ostream& out) {
+    if (o.out && o.out->empty()) throw flag_error("--out", "the path is empty; expected a file name");
     const sensor_file f = read_sensor_file(o.file);
     const model_type& m = f.model;
 

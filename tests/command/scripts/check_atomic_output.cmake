@@ -2,6 +2,7 @@
 #  1. a run that fails on bad input leaves an existing --out file as it was;
 #  2. a run whose --out names a directory, or a FIFO, is refused as bad input
 #     (exit 2), leaves that directory or FIFO alone and no temporary file;
+#  2a. an empty --out is bad input (exit 2);
 #  2b. a run whose --out is a symbolic link writes through it: the link stays;
 #  3. a good run replaces the file with the complete report;
 #  and no temporary file is ever left in the output directory.
@@ -28,6 +29,15 @@ if(NOT content STREQUAL "previous good report\n")
   message(FATAL_ERROR "bad input: the existing output was changed:\n${content}")
 endif()
 no_temporaries("bad input")
+
+# An empty --out is bad input (exit 2), named as the flag, and writes nothing.
+execute_process(COMMAND "${COMMAND}" design "${GOOD}" --json --out ""
+  RESULT_VARIABLE rc OUTPUT_VARIABLE o ERROR_VARIABLE e)
+if(NOT rc EQUAL 2 OR NOT e MATCHES "^counterflux: error: --out: the path is empty; expected a file name\n$" OR
+   NOT o STREQUAL "")
+  message(FATAL_ERROR "--out \"\": exit ${rc}, expected 2\nstdout:\n${o}\nstderr:\n${e}")
+endif()
+no_temporaries("empty --out")
 
 file(MAKE_DIRECTORY "${WORK}/taken")
 file(WRITE "${WORK}/taken/keep.txt" "keep\n")
