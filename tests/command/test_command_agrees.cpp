@@ -65,6 +65,27 @@ void check_design(const std::string& file, const std::vector<std::string>& flags
               doctest::Approx(reports.value.elements[i].resistance_share).epsilon(1e-14));
     }
     CHECK(j["limiting_element"].get<std::size_t>() == reports.value.limiting_element);
+    // Per element: a membrane has no Knudsen number (null; 0 in the contract
+    // array), and linear_resistance_share is the library's knudsen_share.
+    REQUIRE(j["elements"].size() == m.barriers.count);
+    for (std::size_t i = 0; i < m.barriers.count; ++i) {
+        CAPTURE(i);
+        const nlohmann::json& e = j["elements"][i];
+        const auto& lib = reports.value.elements[i];
+        const bool membrane = m.barriers.elements[i].kind == counterflux::barrier_kind::membrane;
+        CHECK(e["type"] == counterflux::kind_name(m.barriers.elements[i].kind));
+        if (membrane) {
+            CHECK(e["knudsen_number"].is_null());
+            CHECK(j["knudsen_numbers"][i].get<double>() == 0.0);
+        } else {
+            CHECK(e["knudsen_number"].get<double>() == doctest::Approx(lib.knudsen_number).epsilon(1e-14));
+        }
+        CHECK_FALSE(e.contains("knudsen_share"));
+        CHECK(e["linear_resistance_share"].get<double>() == doctest::Approx(lib.knudsen_share).epsilon(1e-14));
+        CHECK(e["resistance_share"].get<double>() == doctest::Approx(lib.resistance_share).epsilon(1e-14));
+        CHECK(e["area_m2"].get<double>() == doctest::Approx(lib.area_m2).epsilon(1e-14));
+        CHECK(e["effective_length_m"].get<double>() == doctest::Approx(lib.effective_length_m).epsilon(1e-14));
+    }
 }
 
 }  // namespace
@@ -82,6 +103,18 @@ TEST_CASE("design --json equals the library on the flue-gas O2 example") {
     check_design(file, {}, 0.0, 0.0, -1.0);
     check_design(file, {"--concentration", "20.95 %"}, 0.0, 0.0, 0.2095);
     check_design(file, {"--pressure", "1 atm", "--temperature", "5 C"}, 278.15, 101325.0, -1.0);
+}
+
+TEST_CASE("design --json equals the library on a membrane cell read as partial pressure") {
+    const std::string file = COUNTERFLUX_SOURCE_DIR "/tests/data/good/membrane_o2.toml";
+    check_design(file, {}, 0.0, 0.0, -1.0);
+    check_design(file, {"--temperature", "0 C", "--pressure", "80 kPa", "--concentration", "5 %"}, 273.15, 80000.0,
+                 0.05);
+    const nlohmann::json j = run_json({"design", file, "--json"});
+    // The membrane's resistance is all solution-diffusion: linear in the flux ratio.
+    CHECK(j["elements"][0]["type"] == "membrane");
+    CHECK(j["elements"][0]["linear_resistance_share"].get<double>() == 1.0);
+    CHECK(j["elements"][1]["knudsen_number"].get<double>() > 0.0);
 }
 
 TEST_CASE("design: the O2 example is strongly non-linear at air level") {

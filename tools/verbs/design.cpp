@@ -108,12 +108,15 @@ int run_design(const design_options& o, std::ostream& out) {
                        elements = nlohmann::json::array();
         for (std::size_t i = 0; i < reports.count; ++i) {
             const auto& e = reports.elements[i];
+            // A membrane has no Knudsen number: null per element; the contract
+            // array keeps one number per element, 0 for a membrane.
+            const bool membrane = m.barriers.elements[i].kind == counterflux::barrier_kind::membrane;
             kn.push_back(e.knudsen_number);
             shares.push_back(e.resistance_share);
             elements.push_back({{"type", counterflux::kind_name(m.barriers.elements[i].kind)},
-                                {"knudsen_number", e.knudsen_number},
+                                {"knudsen_number", membrane ? nlohmann::json(nullptr) : nlohmann::json(e.knudsen_number)},
                                 {"resistance_share", e.resistance_share},
-                                {"knudsen_share", e.knudsen_share},
+                                {"linear_resistance_share", e.knudsen_share},
                                 {"area_m2", e.area_m2},
                                 {"effective_length_m", e.effective_length_m}});
         }
@@ -182,6 +185,13 @@ verb add_design_verb(CLI::App& app, std::ostream& out) {
                     "Target concentration (mol/mol, %, ppm, ppb; bare number mol/mol); default: full scale");
     cmd->add_flag("--json", options->json, "Print JSON (SI units)");
     cmd->add_option("--out", options->out, "Write the report to this file (atomically) instead of standard output");
+    cmd->footer(
+        "JSON, per element (\"elements\", outside in): knudsen_number is lambda / d, null for a membrane, which has no "
+        "Knudsen number (the contract array knudsen_numbers keeps one number per element: 0 for a membrane); "
+        "resistance_share is the element's share of the dilute-limit resistance of the barrier; "
+        "linear_resistance_share is the share of the element's own resistance that does not couple to the flux "
+        "ratio: the Knudsen part for a capillary or porous element, the solution-diffusion resistance (all of it) "
+        "for a membrane.");
     return verb{cmd, [options, &out] { return run_design(*options, out); }};
 }
 

@@ -1,6 +1,7 @@
 # `counterflux design FILE --json` succeeds, prints one JSON object with every
 # contract key, numbers where numbers belong and one Knudsen number per
-# [[barrier]]; the human report succeeds too.   -DCOMMAND= -DFILE=
+# [[barrier]] (0 for a membrane, whose own object says null); the human report
+# succeeds too.   -DCOMMAND= -DFILE=
 execute_process(COMMAND "${COMMAND}" design "${FILE}" --json
   RESULT_VARIABLE rc OUTPUT_VARIABLE out ERROR_VARIABLE err)
 if(NOT rc EQUAL 0)
@@ -35,6 +36,30 @@ string(JSON kn LENGTH "${out}" knudsen_numbers)
 if(NOT kn EQUAL barriers)
   message(FATAL_ERROR "design --json ${FILE}: ${kn} Knudsen numbers for ${barriers} barrier elements")
 endif()
+# Per element: its type, a Knudsen number (null for a membrane, which has
+# none) and the linear resistance share.
+string(JSON n LENGTH "${out}" elements)
+if(NOT n EQUAL barriers)
+  message(FATAL_ERROR "design --json ${FILE}: ${n} element objects for ${barriers} barrier elements")
+endif()
+math(EXPR last "${n} - 1")
+foreach(i RANGE ${last})
+  string(JSON type GET "${out}" elements ${i} type)
+  string(JSON kt TYPE "${out}" elements ${i} knudsen_number)
+  string(JSON lt ERROR_VARIABLE e TYPE "${out}" elements ${i} linear_resistance_share)
+  string(JSON old ERROR_VARIABLE gone TYPE "${out}" elements ${i} knudsen_share)
+  string(JSON kn_i GET "${out}" knudsen_numbers ${i})
+  if(e OR NOT lt STREQUAL "NUMBER" OR NOT gone)
+    message(FATAL_ERROR "design --json ${FILE}: element ${i}: linear_resistance_share missing (${e}) or knudsen_share present")
+  endif()
+  if(type STREQUAL "membrane")
+    if(NOT kt STREQUAL "NULL" OR NOT kn_i EQUAL 0)
+      message(FATAL_ERROR "design --json ${FILE}: membrane element ${i}: knudsen_number ${kt}, knudsen_numbers[${i}] = ${kn_i}; expected null and 0")
+    endif()
+  elseif(NOT kt STREQUAL "NUMBER")
+    message(FATAL_ERROR "design --json ${FILE}: element ${i} (${type}): knudsen_number is ${kt}, expected a number")
+  endif()
+endforeach()
 string(JSON current GET "${out}" current_A)
 if(NOT current GREATER 0)
   message(FATAL_ERROR "design --json ${FILE}: current_A = ${current}, expected > 0")
