@@ -50,17 +50,19 @@ const char* type_name(toml::node_type t) noexcept {
 std::string in_quotes(std::string_view s) { return "'" + std::string(s) + "'"; }
 
 // A TOML number as the file wrote it, as near as a double allows: the shortest
-// decimal that reads back to v (1e-310 stays "1e-310", 0.1 stays "0.1").
-std::string format_number(double v) {
-    std::string text;
+// text that reads back to v (1e-310 stays "1e-310", 0.1 "0.1", 10 "10").
+std::string number_as_written(double v) {
+    std::string best;
     for (int digits = 1; digits <= 17; ++digits) {
         std::ostringstream os;
         os.precision(digits);
         os << v;
-        text = os.str();
-        if (!std::isfinite(v) || std::strtod(text.c_str(), nullptr) == v) break;
+        const std::string text = os.str();
+        if (!std::isfinite(v)) return text;
+        if (std::strtod(text.c_str(), nullptr) != v) continue;
+        if (best.empty() || text.size() < best.size()) best = text;
     }
-    return text;
+    return best;
 }
 
 bool is_c_identifier(std::string_view s) noexcept {
@@ -167,7 +169,7 @@ public:
                 text = std::to_string(i->get());
             } else if (const auto* f = n->as_floating_point()) {
                 v = f->get();
-                text = format_number(v);
+                text = number_as_written(v);
                 if (std::isnan(v)) throw unit_error("nan is not a number");
                 if (std::isinf(v) && !(options.allow_infinity && v > 0))
                     throw unit_error(text + " is not a finite number");
@@ -351,14 +353,14 @@ void read_sensor(reader& r, const toml::table& t, sensor_file& out, const source
         } else if (const auto* f = n->as_floating_point()) {
             if (std::isfinite(f->get())) ratio = f->get();
             else if (std::isnan(f->get())) r.error(p, "'sensor.flux_ratio' = nan is not a number; expected " + flux_expected);
-            else r.error(p, "'sensor.flux_ratio' = " + format_number(f->get()) +
+            else r.error(p, "'sensor.flux_ratio' = " + number_as_written(f->get()) +
                                 " is out of range; expected a value from -10 to 10");
         } else {
             r.error(p, "'sensor.flux_ratio' must be " + flux_expected + ", got " + type_name(n->type()));
         }
         if (ratio) {
             if (*ratio < -10.0 || *ratio > 10.0)
-                r.error(p, "'sensor.flux_ratio' = " + format_number(*ratio) +
+                r.error(p, "'sensor.flux_ratio' = " + number_as_written(*ratio) +
                                " is out of range; expected a value from -10 to 10");
             else
                 out.model.flux_ratio = *ratio;
@@ -685,10 +687,15 @@ void check_model(reader& r, sensor_file& out) {
         return;
     }
     const auto i = counterflux::limiting_current_A(m, t, p, out.full_scale_mol_mol);
-    if (!i.ok())
-        r.error(out.full_scale_place, "'sensor.full_scale' = " + r.full_scale_text +
-                                          " is outside the model's domain for this sensor: " +
-                                          std::string(counterflux::describe(i.code)));
+    if (i.ok()) return;
+    const std::string head = "'sensor.full_scale' = " + r.full_scale_text + ": ";
+    if (const auto why = singular_log_law(out, out.full_scale_mol_mol, "full_scale"))
+        r.error(out.full_scale_place, head + *why);
+    else
+        r.error(out.full_scale_place, head + "the current at " + format_concentration(out.full_scale_mol_mol) +
+                                          " cannot be computed at " + condition + ": " +
+                                          counterflux::describe(i.code) +
+                                          "; expected a full scale at which the current is finite");
 }
 
 }  // namespace
@@ -722,6 +729,46 @@ std::optional<diagnostic> diagnose_condition(const sensor_file& f, double t, dou
                                      ") cannot be resolved at " + condition + ": " + counterflux::describe(e.code)};
     }
     return std::nullopt;
+}
+
+std::optional<std::string> singular_log_law(const sensor_file& f, double y, const std::string& knob) {
+    const auto& m = f.model;
+    if (m.barriers.count == 0) return std::nullopt;
+    // alpha = 1 + N_B/N_A and 1/alpha: arithmetic on the file's flux ratio.
+    const double alpha = 1.0 + m.flux_ratio;
+    if (!(alpha > 0.0)) return std::nullopt;  // q(y) = r_m (1 - alpha y) + r_l grows with y: never singular
+    const double y_singular = 1.0 / alpha;
+    const auto& outer = m.barriers.elements[0];
+    const bool blind_resistance = outer.kind == counterflux::barrier_kind::membrane || outer.knudsen;
+    // A fraction a rounding below 1/alpha already meets the library's floor of q.
+    if (!(y >= y_singular * (1.0 - 1e-9))) return std::nullopt;
+    if (blind_resistance && !(y > y_singular)) return std::nullopt;
+
+    const bool stagnant = m.flux_ratio == 0.0;
+    const std::string law = stagnant ? std::string("the stagnant-film log law")
+                                     : "with 'sensor.flux_ratio' = " + number_as_written(m.flux_ratio) +
+                                           " (alpha = 1 + N_B/N_A = " + format_number(alpha, 6) + ") the log law";
+    const std::string at_y = format_concentration(y);
+    const std::string singular =
+        alpha == 1.0 ? std::string("y = 1/alpha = 1")
+                     : "y = 1/alpha = 1/" + format_number(alpha, 6) + " = " + format_concentration(y_singular);
+    const bool series = m.barriers.count > 1;
+    const std::string element = series ? std::string("the outer element ([[barrier]] #1)") : std::string("the barrier");
+    const std::string lower = "lower " + knob + " below " + format_concentration(y_singular) +
+                              (stagnant ? std::string("") : std::string(", lower the flux ratio"));
+    if (!blind_resistance) {
+        const std::string knudsen = outer.kind == counterflux::barrier_kind::porous
+                                        ? "knudsen = true, with a pore_diameter"
+                                        : "knudsen = true";
+        return law + " has no finite current at " + at_y + " (singular at " + singular + "); " + lower + " or " +
+               (series ? "give " + element + " a Knudsen resistance (" + knudsen + ") or put a membrane first"
+                       : "give " + element + " a Knudsen (" + knudsen + ") or membrane resistance");
+    }
+    // The outer element's Knudsen resistance lifts the limit above 1/alpha, but not up to y.
+    return law + " has no finite current at " + at_y + ": it is singular at " + singular + " and the Knudsen " +
+           "resistance of " + element + " lifts that limit, but not up to " + at_y + "; lower " + knob +
+           " (below " + format_concentration(y_singular) + " the current is always finite), lower the flux ratio" +
+           " or put a membrane first";
 }
 
 namespace {

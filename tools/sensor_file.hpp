@@ -87,6 +87,16 @@ sensor_file read_sensor_file(const std::filesystem::path& path);
 std::optional<diagnostic> diagnose_condition(const sensor_file& file, double temperature_K, double pressure_Pa,
                                              const std::string& condition);
 
+/// Why the library finds no finite current at mole fraction y outside the
+/// barrier, when the cause can be read off the file: for alpha = 1 + flux_ratio
+/// > 0 the log law is singular at y = 1/alpha, and only a resistance blind to
+/// the flux ratio (Knudsen, membrane) in the outer element ([[barrier]] #1)
+/// lifts that limit. The text says so, with 1/alpha and the flux ratio, and
+/// what to change; knob names the value that set y ("full_scale",
+/// "--concentration"). Nothing when y is below 1/alpha (or alpha <= 0): the
+/// cause is then not the singularity. Call it only after the library failed.
+std::optional<std::string> singular_log_law(const sensor_file& file, double mole_fraction, const std::string& knob);
+
 /// Parses and checks text as a sensor file; path is only used in messages.
 /// Throws input_error.
 sensor_file parse_sensor_file(std::string_view text, const std::string& path);

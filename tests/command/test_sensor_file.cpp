@@ -406,6 +406,48 @@ TEST_CASE("sensor file: a model that fails at the reference condition is blamed 
     CHECK_FALSE(counterflux::tool::diagnose_condition(good, 300.0, 1e5, "here").has_value());
 }
 
+TEST_CASE("sensor file: the singular log law is explained from the flux ratio and the outer element") {
+    using counterflux::tool::singular_log_law;
+    const auto with = [](const std::string& flux_ratio, const std::string& knudsen) {
+        std::string text = minimal;
+        text.replace(text.find("\"equimolar\""), 11, flux_ratio);
+        text += knudsen;
+        return parse_sensor_file(text, "test.toml");
+    };
+    // Equimolar (alpha = 0) and alpha < 0: never singular.
+    CHECK_FALSE(singular_log_law(with("\"equimolar\"", "knudsen = false\n"), 1.0, "full_scale").has_value());
+    CHECK_FALSE(singular_log_law(with("-3", "knudsen = false\n"), 1.0, "full_scale").has_value());
+    // Stagnant: singular at 1 only, and only without a Knudsen term.
+    const sensor_file stagnant = with("\"stagnant\"", "knudsen = false\n");
+    CHECK_FALSE(singular_log_law(stagnant, 0.99, "full_scale").has_value());
+    const auto s = singular_log_law(stagnant, 1.0, "full_scale");
+    REQUIRE(s.has_value());
+    CHECK(*s == "the stagnant-film log law has no finite current at 100 % (singular at y = 1/alpha = 1); lower "
+                "full_scale below 100 % or give the barrier a Knudsen (knudsen = true) or membrane resistance");
+    CHECK_FALSE(singular_log_law(with("\"stagnant\"", ""), 1.0, "full_scale").has_value());
+    // flux_ratio = 10: singular at 1/11, named with the flux ratio.
+    const auto ten = singular_log_law(with("10", "knudsen = false\n"), 0.5, "--concentration");
+    REQUIRE(ten.has_value());
+    CHECK(ten->rfind("with 'sensor.flux_ratio' = 10 (alpha = 1 + N_B/N_A = 11) the log law has no finite current at "
+                     "50 % (singular at y = 1/alpha = 1/11 = 9.091 %); lower --concentration below 9.091 %, lower the "
+                     "flux ratio",
+                     0) == 0);
+    CHECK_FALSE(singular_log_law(with("10", "knudsen = false\n"), 0.05, "full_scale").has_value());
+    // With a Knudsen term the limit is lifted, maybe not far enough.
+    const auto lifted = singular_log_law(with("10", ""), 1.0, "full_scale");
+    REQUIRE(lifted.has_value());
+    CHECK(lifted->find("lifts that limit, but not up to 100 %") != std::string::npos);
+    // A membrane first never leaves the log law singular.
+    const sensor_file membrane_first = parse_sensor_file(
+        std::string(minimal).replace(minimal.find("type = \"capillary\""), 18,
+                                     "type = \"membrane\"\nthickness = \"25 um\"\narea = \"10 mm2\"\n"
+                                     "permeability = \"600 Barrer\"\n[[barrier]]\ntype = \"capillary\"") +
+            "knudsen = false\n",
+        "test.toml");
+    REQUIRE(membrane_first.model.barriers.count == 2);
+    CHECK_FALSE(singular_log_law(membrane_first, 1.0, "full_scale").has_value());
+}
+
 TEST_CASE("sensor file: gas formulas are case-sensitive, English names are not") {
     const auto with_target = [](const std::string& target) {
         std::string text = minimal;

@@ -60,23 +60,31 @@ int run_design(const design_options& o, std::ostream& out) {
     name_flag("--concentration", o.concentration);
     const std::string at = " at " + format_temperature(t) + ", " + format_pressure(p);
     // A failure is blamed on the part of the file that cannot be resolved there, if any.
-    const auto get = [&](const auto& r, const std::string& what) {
+    // A current with no finite value at y (the log law singular at 1/alpha) is
+    // explained from the file's flux ratio and outer element.
+    const auto get = [&](const auto& r, const std::string& what, bool at_y = false) {
         if (!r.ok()) {
             std::vector<diagnostic> details;
             if (const auto d = diagnose_condition(f, t, p, format_temperature(t) + ", " + format_pressure(p)))
                 details.push_back(*d);
+            else if (at_y)
+                if (const auto why = singular_log_law(f, y, o.concentration ? "--concentration" : "full_scale")) {
+                    source_place place;
+                    place.subject = subject;
+                    details.push_back(diagnostic{place, *why});
+                }
             require_ok(r.code, what, subject, details);
         }
         return r.value;
     };
     const double current = get(counterflux::limiting_current_A(m, t, p, y),
-                               "the current at " + format_concentration(y) + at);
+                               "the current at " + format_concentration(y) + at, true);
     const double sensitivity = get(counterflux::sensitivity_A_per_mol_per_mol(m, t, p), "the sensitivity" + at);
     const double tc = get(counterflux::temperature_coefficient_per_K(m, t, p), "the temperature coefficient" + at);
     const double pc = get(counterflux::pressure_coefficient_per_Pa(m, t, p), "the pressure coefficient" + at);
     const double span = get(counterflux::span_factor(m, t, p), "the span factor" + at);
     const double linearity =
-        get(counterflux::linearity_ratio(m, t, p, y), "the linearity ratio at " + format_concentration(y) + at);
+        get(counterflux::linearity_ratio(m, t, p, y), "the linearity ratio at " + format_concentration(y) + at, true);
     const auto reports = get(counterflux::element_reports(m, t, p), "the element reports" + at);
 
     if (o.json) {

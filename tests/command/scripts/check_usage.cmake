@@ -60,8 +60,15 @@ file(READ "${BAD_DIR}/stagnant_series_full_range.toml" text)
 string(REPLACE "\"100 %\"" "\"50 %\"" text "${text}")
 file(WRITE "${WORK}/stagnant_series.toml" "${text}")
 expect(0 "nA/ppm" design "${WORK}/stagnant_series.toml")
-expect(2 "^counterflux: error: --concentration 100 %: cannot compute the current at 100 %"
+expect(2 "^counterflux: error: --concentration 100 %: cannot compute the current at 100 %[^\n]*\ncounterflux: error: --concentration 100 %: the stagnant-film log law has no finite current at 100 % \\(singular at y = 1/alpha = 1\\); lower --concentration below 100 %"
        design "${WORK}/stagnant_series.toml" --concentration "100 %")
+# With flux_ratio = 10 the log law is singular at y = 1/11: the message names the flux ratio.
+file(READ "${BAD_DIR}/flux_ratio_ten_full_scale.toml" text)
+string(REPLACE "\"50 %\"" "\"5 %\"" text "${text}")
+file(WRITE "${WORK}/flux_ratio_ten.toml" "${text}")
+expect(0 "nA/ppm" design "${WORK}/flux_ratio_ten.toml")
+expect(2 "\ncounterflux: error: --concentration 10 %: with 'sensor.flux_ratio' = 10 \\(alpha = 1 \\+ N_B/N_A = 11\\) the log law has no finite current at 10 % \\(singular at y = 1/alpha = 1/11 = 9.091 %\\); lower --concentration below 9.091 %"
+       design "${WORK}/flux_ratio_ten.toml" --concentration "10 %")
 
 # Help and version printed to a full standard output is a failure (exit 1), not
 # a success: the reader of the help never got it.
