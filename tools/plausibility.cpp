@@ -31,7 +31,7 @@ const value_range area_range{1.0e-12, 1.0, true, true, "an area from 1e-12 m2 to
 const value_range porosity_range{1.0e-4, 1.0, true, true, "a porosity from 1e-4 to 1", "1e-4 .. 1", ""};
 const value_range temperature_range{100.0, 1000.0, true, true, "a temperature from 100 K to 1000 K", "100 K .. 1000 K",
                                     "the range of the diffusivity correlations"};
-const value_range pressure_range{100.0, 1.0e7, true, true, "a pressure from 100 Pa to 10 MPa", "100 Pa .. 10 MPa",
+const value_range pressure_range{100.0, 1.0e7, true, true, "a pressure from 100 Pa to 10000 kPa", "100 Pa .. 10000 kPa",
                                  "a low-density gas, D ~ 1/P"};
 const value_range permeability_range{0.0, 1.0e-6, false, false, "a permeability above 0 and below 1e-6 mol/(m s Pa)",
                                      "0 .. 1e-6 mol/(m s Pa), both excluded", ""};

@@ -50,7 +50,8 @@ extern const value_range porosity_range;
 /// made over and where the background stays a low-density gas.
 extern const value_range temperature_range;
 /// Pressures (reference, table axes, measured-value condition, --pressure):
-/// 100 Pa to 10 MPa; the models are for a low-density gas (D ~ 1/P).
+/// 100 Pa to 10000 kPa (1e7 Pa; the messages print kPa, MPa is not an accepted
+/// unit); the models are for a low-density gas (D ~ 1/P).
 extern const value_range pressure_range;
 /// Membrane permeability: above 0, below 1e-6 mol/(m s Pa) (some 3e9 Barrer).
 extern const value_range permeability_range;

@@ -328,7 +328,7 @@ TEST_CASE("sensor file: implausible values are refused at their key, with the ra
                                                   "temperature from 100 K to 1000 K") != std::string::npos);
     CHECK(replaced("\"20 C\"", "\"99 K\"").find("'reference.temperature'") != std::string::npos);
     CHECK(replaced("\"20 C\"", "\"100 K\"").empty());
-    CHECK(replaced("\"101.325 kPa\"", "\"1e300 Pa\"").find("expected a pressure from 100 Pa to 10 MPa") !=
+    CHECK(replaced("\"101.325 kPa\"", "\"1e300 Pa\"").find("expected a pressure from 100 Pa to 10000 kPa") !=
           std::string::npos);
     CHECK(replaced("\"101.325 kPa\"", "\"10 MPa\"").find("unknown unit") != std::string::npos);  // MPa is not a unit
     CHECK(replaced("\"101.325 kPa\"", "1e7").empty());

@@ -10,6 +10,7 @@
 
 #include <counterflux/units.hpp>
 
+#include "plausibility.hpp"
 #include "units_parse.hpp"
 
 using counterflux::tool::parse_number;
@@ -265,4 +266,40 @@ TEST_CASE("units: a number too large for a double is out of range, not malformed
     CHECK_THROWS_AS(parse_quantity("1e999 m", quantity_kind::length), counterflux::tool::number_out_of_range);
     CHECK_THROWS_AS(parse_quantity("1e308 bar", quantity_kind::pressure), counterflux::tool::number_out_of_range);
     CHECK(message_of("1e999 m", quantity_kind::length).find("out of range") != std::string::npos);
+}
+
+TEST_CASE("units: the plausible ranges are printed in units the parser accepts") {
+    // Each end of a range's span ("100 Pa .. 10000 kPa") reads back, as a user
+    // would type it, to the range's own limit: no unit in a message is one the
+    // user could not write.
+    struct range_case {
+        const counterflux::tool::value_range* range;
+        quantity_kind kind;
+    };
+    const range_case cases[] = {
+        {&counterflux::tool::length_range, quantity_kind::length},
+        {&counterflux::tool::area_range, quantity_kind::area},
+        {&counterflux::tool::porosity_range, quantity_kind::dimensionless},
+        {&counterflux::tool::temperature_range, quantity_kind::temperature},
+        {&counterflux::tool::pressure_range, quantity_kind::pressure},
+        {&counterflux::tool::permeability_range, quantity_kind::permeability},
+        {&counterflux::tool::activation_energy_range, quantity_kind::energy},
+        {&counterflux::tool::concentration_range, quantity_kind::concentration},
+    };
+    for (const auto& c : cases) {
+        std::string span = c.range->span;
+        CAPTURE(span);
+        const auto comma = span.find(", ");
+        if (comma != std::string::npos) span.resize(comma);  // ", both excluded"
+        const auto dots = span.find(" .. ");
+        REQUIRE(dots != std::string::npos);
+        std::string low = span.substr(0, dots);
+        const std::string high = span.substr(dots + 4);
+        // "0 .. 100 %": a bare low end takes the high end's unit.
+        const auto unit_at = high.find(' ');
+        if (low.find(' ') == std::string::npos && unit_at != std::string::npos) low += high.substr(unit_at);
+        CHECK(parse_quantity(low, c.kind) == doctest::Approx(c.range->low).epsilon(1e-12));
+        CHECK(parse_quantity(high, c.kind) == doctest::Approx(c.range->high).epsilon(1e-12));
+    }
+    CHECK(std::string(counterflux::tool::pressure_range.rule) == "a pressure from 100 Pa to 10000 kPa");
 }
