@@ -6,6 +6,15 @@
 
 namespace counterflux::tool {
 
+std::string abbreviate(std::string_view text, std::size_t limit) {
+    if (text.size() <= limit) return std::string(text);
+    const std::size_t keep = limit > 3 ? limit - 3 : 0;
+    std::size_t cut = keep;
+    // Back up over UTF-8 continuation bytes (10xxxxxx) to the start of a character.
+    while (cut > 0 && (static_cast<unsigned char>(text[cut]) & 0xC0u) == 0x80u) --cut;
+    return std::string(text.substr(0, cut)) + "...";
+}
+
 std::string format_diagnostic(const diagnostic& d) {
     std::string out;
     const source_place& p = d.place;

@@ -9,10 +9,12 @@
 #ifndef COUNTERFLUX_TOOLS_ERRORS_HPP
 #define COUNTERFLUX_TOOLS_ERRORS_HPP
 
+#include <cstddef>
 #include <exception>
 #include <iosfwd>
 #include <stdexcept>
 #include <string>
+#include <string_view>
 #include <vector>
 
 namespace counterflux::tool {
@@ -36,6 +38,14 @@ struct diagnostic {
     source_place place;
     std::string message;
 };
+
+/// Most bytes of user text (a key, a value, an argument) a message echoes.
+inline constexpr std::size_t echo_limit = 60;
+
+/// text as a message echoes it: unchanged up to echo_limit bytes, else its
+/// first bytes (not splitting a UTF-8 sequence) and "...". A 1 MB key makes a
+/// one-line message, not a 1 MB one.
+std::string abbreviate(std::string_view text, std::size_t limit = echo_limit);
 
 /// Formats one diagnostic as a single line (no trailing newline).
 std::string format_diagnostic(const diagnostic& d);

@@ -41,7 +41,7 @@ input_error usage_error(const CLI::ParseError& e, const std::vector<verb>& verbs
         if (v.command->parsed()) chosen = v.command;
     }
     if (chosen != nullptr)
-        return input_error(source_place{}, std::string(e.what()) + "; run '" + program_name + " " +
+        return input_error(source_place{}, abbreviate(e.what(), 4 * echo_limit) + "; run '" + program_name + " " +
                                                chosen->get_name() + " --help' for usage");
     // No verb was recognised: the first argument that is not an option is the
     // would-be verb (the top level has no options that take a value).
@@ -49,14 +49,15 @@ input_error usage_error(const CLI::ParseError& e, const std::vector<verb>& verbs
     for (int i = 1; i < argc; ++i) {
         const std::string arg = argv[i];
         if (!arg.empty() && arg.front() == '-') continue;
-        std::string message = "unknown verb '" + arg + "'";
+        std::string message = "unknown verb '" + abbreviate(arg) + "'";
         if (const auto m = closest_match(arg, names)) message += " (did you mean '" + *m + "'?)";
         return input_error(source_place{}, message + "; known verbs: " + known + usage);
     }
     for (int i = 1; i < argc; ++i) {
         const std::string arg = argv[i];
         if (arg != "--help" && arg != "-h" && arg != "--version")
-            return input_error(source_place{}, "unknown option '" + arg + "' before the verb; expected a verb: " +
+            return input_error(source_place{}, "unknown option '" + abbreviate(arg) +
+                                                   "' before the verb; expected a verb: " +
                                                    known + usage);
     }
     (void)e;

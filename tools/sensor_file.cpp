@@ -47,7 +47,9 @@ const char* type_name(toml::node_type t) noexcept {
     return "nothing";
 }
 
-std::string in_quotes(std::string_view s) { return "'" + std::string(s) + "'"; }
+// Keys and values are echoed abbreviated (errors.hpp): a message stays one short line.
+std::string in_quotes(std::string_view s) { return "'" + abbreviate(s) + "'"; }
+std::string in_double_quotes(std::string_view s) { return "\"" + abbreviate(s) + "\""; }
 
 // A TOML number as the file wrote it, as near as a double allows: the shortest
 // text that reads back to v (1e-310 stays "1e-310", 0.1 "0.1", 10 "10").
@@ -160,7 +162,7 @@ public:
         try {
             if (const auto* s = n->as_string()) {
                 const double v = parse_quantity(s->get(), k, options);
-                return located<double>{v, p, "\"" + s->get() + "\""};
+                return located<double>{v, p, in_double_quotes(s->get())};
             }
             double v = 0.0;
             std::string text;
@@ -229,7 +231,7 @@ public:
             error(at(*n), in_quotes(dotted) + " must be a string (" + expected + "), got " + type_name(n->type()));
             return std::nullopt;
         }
-        return located<std::string>{s->get(), at(*n), "\"" + s->get() + "\""};
+        return located<std::string>{s->get(), at(*n), in_double_quotes(s->get())};
     }
 
     // The sub-table at key: nullptr when absent (reported if required) or of the wrong type.
@@ -339,10 +341,11 @@ void read_sensor(reader& r, const toml::table& t, sensor_file& out, const source
                 try {
                     ratio = parse_number(s->get());
                 } catch (const number_out_of_range&) {
-                    r.error(p, "'sensor.flux_ratio' = \"" + s->get() +
-                                   "\" is out of range; expected a value from -10 to 10");
+                    r.error(p, "'sensor.flux_ratio' = " + in_double_quotes(s->get()) +
+                                   " is out of range; expected a value from -10 to 10");
                 } catch (const unit_error&) {
-                    std::string message = "'sensor.flux_ratio' = \"" + s->get() + "\" is not " + flux_expected;
+                    std::string message =
+                        "'sensor.flux_ratio' = " + in_double_quotes(s->get()) + " is not " + flux_expected;
                     if (const auto m = closest_match(s->get(), {"equimolar", "stagnant"}))
                         message += "; did you mean \"" + *m + "\"?";
                     r.error(p, message);
@@ -819,6 +822,8 @@ std::size_t edit_distance(std::string_view a, std::string_view b) {
 }
 
 std::optional<std::string> closest_match(std::string_view word, const std::vector<std::string>& candidates) {
+    // The distance table is word.size() x candidate.size(): a long word is no typo of a short name.
+    if (word.size() > max_suggestion_length) return std::nullopt;
     std::optional<std::string> best;
     std::size_t best_distance = std::numeric_limits<std::size_t>::max();
     for (const auto& c : candidates) {

@@ -111,7 +111,11 @@ std::string unknown_gas_hint(const std::string& name);
 /// Edit distance (optimal string alignment: insert, delete, substitute, swap).
 std::size_t edit_distance(std::string_view a, std::string_view b);
 
-/// The candidate closest to word, if it is close enough to be a likely typo.
+/// Longest word closest_match looks at; a longer one gets no suggestion.
+inline constexpr std::size_t max_suggestion_length = 64;
+
+/// The candidate closest to word, if it is close enough to be a likely typo
+/// (never for a word longer than max_suggestion_length).
 std::optional<std::string> closest_match(std::string_view word, const std::vector<std::string>& candidates);
 
 }  // namespace counterflux::tool

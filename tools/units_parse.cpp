@@ -9,6 +9,8 @@
 #include <counterflux/constants.hpp>
 #include <counterflux/units.hpp>
 
+#include "errors.hpp"
+
 namespace counterflux::tool {
 
 namespace {
@@ -82,7 +84,7 @@ std::string_view trim(std::string_view s) noexcept {
     return s;
 }
 
-std::string in_quotes(std::string_view s) { return "'" + std::string(s) + "'"; }
+std::string in_quotes(std::string_view s) { return "'" + abbreviate(s) + "'"; }
 
 // Length of the longest prefix of s that is a strict decimal number; 0 if none.
 // A point needs a digit on at least one side: "1.", ".5" and "1.5" are numbers,

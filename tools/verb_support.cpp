@@ -11,7 +11,7 @@ double flag_quantity(const std::string& flag, const std::string& text, quantity_
     }
 }
 
-std::string flag_with_value(const std::string& flag, const std::string& text) { return flag + " " + text; }
+std::string flag_with_value(const std::string& flag, const std::string& text) { return flag + " " + abbreviate(text); }
 
 double flag_quantity_in(const std::string& flag, const std::string& text, quantity_kind kind,
                         const value_range& range) {

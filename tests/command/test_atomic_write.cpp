@@ -199,7 +199,8 @@ TEST_CASE("atomic write: an empty path is bad input") {
         atomic_write(fs::path(), std::string("x"));
         FAIL("no exception");
     } catch (const input_error& e) {
-        CHECK(std::string(e.what()) == "counterflux: error: cannot write: the output path is empty; expected a file name");
+        CHECK(std::string(e.what()) ==
+              "counterflux: error: cannot write: the output path is empty; expected a file name");
     }
 }
 

@@ -448,6 +448,44 @@ TEST_CASE("sensor file: the singular log law is explained from the flux ratio an
     CHECK_FALSE(singular_log_law(membrane_first, 1.0, "full_scale").has_value());
 }
 
+TEST_CASE("messages echo at most about 60 characters of a key or value") {
+    using counterflux::tool::abbreviate;
+    CHECK(abbreviate("diameter") == "diameter");
+    CHECK(abbreviate(std::string(60, 'k')) == std::string(60, 'k'));
+    CHECK(abbreviate(std::string(61, 'k')) == std::string(57, 'k') + "...");
+    // Not in the middle of a UTF-8 sequence: 56 ASCII bytes, then a 2-byte character.
+    const std::string utf8 = std::string(56, 'a') + "\xC3\xA9" + std::string(10, 'b');
+    CHECK(abbreviate(utf8) == std::string(56, 'a') + "...");
+
+    // A 1 MB unknown key: one short line, no "did you mean" (the edit-distance
+    // table of so long a word is skipped).
+    const std::string key(1000000, 'k');
+    const auto p = problems(minimal + "\n" + key + " = 1\n");
+    REQUIRE(p.size() == 1);
+    const std::string line = counterflux::tool::format_diagnostic(p.front());
+    CAPTURE(line.substr(0, 200));
+    CHECK(line.size() < 300);
+    CHECK(line.find("unknown key '" + std::string(57, 'k') + "...' in [[barrier]] #1; expected one of: ") !=
+          std::string::npos);
+    CHECK(line.find("did you mean") == std::string::npos);
+    // A key of 64 characters still gets a suggestion when one is close; 65 do not.
+    CHECK(counterflux::tool::closest_match(std::string(64, 'x'), {std::string(63, 'x')}).has_value());
+    CHECK_FALSE(counterflux::tool::closest_match(std::string(65, 'x'), {std::string(64, 'x')}).has_value());
+
+    // A long value, as a string and through the unit parser.
+    std::string text = minimal;
+    text.replace(text.find("\"CO\""), 4, "\"" + std::string(5000, 'Q') + "\"");
+    const std::string gas = first_line(text);
+    CHECK(gas.rfind("test.toml:3:10: error: unknown gas \"" + std::string(57, 'Q') + "...\" for 'sensor.target'", 0) ==
+          0);
+    CHECK(gas.size() < 400);
+    text = minimal;
+    text.replace(text.find("\"0.15 mm\""), 9, "\"0.15 " + std::string(5000, 'u') + "\"");
+    const std::string unit = first_line(text);
+    CHECK(unit.find("unknown unit '" + std::string(57, 'u') + "...'") != std::string::npos);
+    CHECK(unit.size() < 400);
+}
+
 TEST_CASE("sensor file: gas formulas are case-sensitive, English names are not") {
     const auto with_target = [](const std::string& target) {
         std::string text = minimal;

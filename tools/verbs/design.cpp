@@ -122,7 +122,8 @@ int run_design(const design_options& o, std::ostream& out) {
             kn.push_back(e.knudsen_number);
             shares.push_back(e.resistance_share);
             elements.push_back({{"type", counterflux::kind_name(m.barriers.elements[i].kind)},
-                                {"knudsen_number", membrane ? nlohmann::json(nullptr) : nlohmann::json(e.knudsen_number)},
+                                {"knudsen_number",
+                                 membrane ? nlohmann::json(nullptr) : nlohmann::json(e.knudsen_number)},
                                 {"resistance_share", e.resistance_share},
                                 {"linear_resistance_share", e.knudsen_share},
                                 {"area_m2", e.area_m2},

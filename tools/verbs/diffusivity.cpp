@@ -26,7 +26,7 @@ const counterflux::gas_data& gas_argument(const std::string& name, const char* w
     if (!found.ok() || found.value == nullptr) {
         source_place place;
         place.subject = which;
-        throw input_error(place, "unknown gas '" + name + "'" + unknown_gas_hint(name));
+        throw input_error(place, "unknown gas '" + abbreviate(name) + "'" + unknown_gas_hint(name));
     }
     return *found.value;
 }
@@ -39,7 +39,7 @@ int run_diffusivity(const diffusivity_options& o, std::ostream& out) {
     counterflux::diffusivity_method method = counterflux::diffusivity_method::fuller;
     if (o.method == "fuller") method = counterflux::diffusivity_method::fuller;
     else if (o.method == "chapman-enskog") method = counterflux::diffusivity_method::chapman_enskog;
-    else throw flag_error("--method", "'" + o.method + "' is not fuller or chapman-enskog");
+    else throw flag_error("--method", "'" + abbreviate(o.method) + "' is not fuller or chapman-enskog");
 
     const double t = flag_quantity("--temperature", o.temperature, quantity_kind::temperature);
     const std::string t_flag = flag_with_value("--temperature", o.temperature);

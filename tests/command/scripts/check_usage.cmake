@@ -46,6 +46,12 @@ expect(2 "^counterflux: error: --method" diffusivity CO air --method wilke)
 expect(2 "^counterflux: error: .*unknown gas 'CO3'.*known formulas" diffusivity CO3 air)
 expect(2 "^${WORK}/none.toml: error: cannot open" design "${WORK}/none.toml")
 expect(0 "m2/s" diffusivity CO air)
+# Long arguments are echoed abbreviated, to about 60 characters.
+string(REPEAT "x" 5000 long)
+string(REPEAT "x" 57 head)
+expect(2 "^counterflux: error: unknown verb '${head}\\.\\.\\.'; known verbs" "${long}")
+expect(2 "^counterflux: error: A: unknown gas '${head}\\.\\.\\.'; known formulas" diffusivity "${long}" air)
+expect(2 "^counterflux: error: --temperature: unknown unit '${head}\\.\\.\\.'" design "${GOOD}" --temperature "1 ${long}")
 expect(0 "\"diffusivity_m2_s\"" diffusivity N2 O2 --method chapman-enskog --temperature "25 C" --pressure "1 atm" --json)
 # A failure of the library at a condition set by flags names those flags, and
 # blames the part of the file that cannot be resolved there.
