@@ -172,6 +172,24 @@ TEST_CASE("diffusivity: defaults are 298.15 K, 101325 Pa and fuller") {
     same(j, "diffusivity_m2_s", counterflux::fuller_diffusivity(*co, *air, 298.15, 101325.0).value);
 }
 
+TEST_CASE("diffusivity: the same gas twice is its self-diffusivity, and says so") {
+    const auto* co = counterflux::find_gas("CO").value;
+    for (const char* second : {"CO", "carbon monoxide"}) {
+        CAPTURE(second);
+        const nlohmann::json j = run_json({"diffusivity", "CO", second, "--json"});
+        REQUIRE(j.contains("self_diffusivity"));
+        CHECK(j["self_diffusivity"] == true);
+        same(j, "diffusivity_m2_s", counterflux::fuller_diffusivity(*co, *co, 298.15, 101325.0).value);
+        const run_result r = run({"diffusivity", "CO", second});
+        REQUIRE(r.status == 0);
+        CAPTURE(r.out);
+        CHECK(r.out.find("cm2/s (self-diffusivity of CO)\n") != std::string::npos);
+    }
+    const nlohmann::json pair = run_json({"diffusivity", "CO", "air", "--json"});
+    CHECK(pair["self_diffusivity"] == false);
+    CHECK(run({"diffusivity", "CO", "air"}).out.find("self-diffusivity") == std::string::npos);
+}
+
 TEST_CASE("design: the human report shows the library's sensitivity in nA/ppm") {
     const std::string file = examples + "garage_co.toml";
     const auto f = counterflux::tool::read_sensor_file(file);

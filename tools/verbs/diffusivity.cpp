@@ -56,9 +56,13 @@ int run_diffusivity(const diffusivity_options& o, std::ostream& out) {
     const counterflux::result<double> d = method == counterflux::diffusivity_method::fuller
                                               ? counterflux::fuller_diffusivity(a, b, t, p)
                                               : counterflux::chapman_enskog_diffusivity(a, b, t, p);
-    const std::string pair = std::string(a.formula) + "-" + b.formula;
+    // The same gas twice is a self-diffusivity (the correlations take it); say so.
+    const bool self = &a == &b;
+    const std::string self_words = std::string("self-diffusivity of ") + a.formula;
+    const std::string what = self ? "the " + self_words
+                                  : std::string("the diffusivity of ") + a.formula + "-" + b.formula;
     const double value =
-        value_of(d, "the diffusivity of " + pair, t_flag + ", " + flag_with_value("--pressure", o.pressure));
+        value_of(d, what, t_flag + ", " + flag_with_value("--pressure", o.pressure));
 
     if (o.json) {
         nlohmann::json j;
@@ -68,10 +72,12 @@ int run_diffusivity(const diffusivity_options& o, std::ostream& out) {
         j["pressure_Pa"] = p;
         j["diffusivity_m2_s"] = value;
         j["diffusivity_cm2_s"] = from_si(value, "cm2/s");
+        j["self_diffusivity"] = self;
         emit(json_text(j), std::nullopt, out);
     } else {
         std::string text = "D(" + std::string(a.formula) + ", " + b.formula + ") = " + format_number(value, 5) +
-                           " m2/s = " + format_number(from_si(value, "cm2/s"), 5) + " cm2/s\n";
+                           " m2/s = " + format_number(from_si(value, "cm2/s"), 5) + " cm2/s" +
+                           (self ? " (" + self_words + ")" : std::string()) + "\n";
         text += "  method " + std::string(counterflux::method_name(method)) + ", at " + format_temperature(t) +
                 ", " + format_pressure(p) + "\n";
         emit(text, std::nullopt, out);
@@ -81,7 +87,8 @@ int run_diffusivity(const diffusivity_options& o, std::ostream& out) {
 
 verb add_diffusivity_verb(CLI::App& app, std::ostream& out) {
     auto options = std::make_shared<diffusivity_options>();
-    CLI::App* cmd = app.add_subcommand("diffusivity", "Binary diffusivity D_AB of a gas pair");
+    CLI::App* cmd = app.add_subcommand("diffusivity",
+                                        "Binary diffusivity D_AB of a gas pair (the same gas twice: its self-diffusivity)");
     cmd->add_option("A", options->gas_a, "First gas (formula, e.g. CO)")->required();
     cmd->add_option("B", options->gas_b, "Second gas (formula, e.g. air)")->required();
     cmd->add_option("--temperature", options->temperature, "Temperature (K, C, degC; bare number K)")
