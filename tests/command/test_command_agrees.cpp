@@ -190,6 +190,20 @@ TEST_CASE("diffusivity: the same gas twice is its self-diffusivity, and says so"
     CHECK(run({"diffusivity", "CO", "air"}).out.find("self-diffusivity") == std::string::npos);
 }
 
+TEST_CASE("design: the span line says what the span factor divides, per report mode") {
+    const run_result fraction = run({"design", examples + "garage_co.toml"});
+    REQUIRE(fraction.status == 0);
+    CAPTURE(fraction.out);
+    CHECK(fraction.out.find(" (sensitivity / sensitivity at reference)\n") != std::string::npos);
+    const run_result pressure =
+        run({"design", COUNTERFLUX_SOURCE_DIR "/tests/data/good/membrane_o2.toml", "--pressure", "80 kPa"});
+    REQUIRE(pressure.status == 0);
+    CAPTURE(pressure.out);
+    CHECK(pressure.out.find(" ((S/P) / (S_ref/P_ref): sensitivity to partial pressure / that at reference)\n") !=
+          std::string::npos);
+    CHECK(pressure.out.find("(sensitivity / sensitivity at reference)") == std::string::npos);
+}
+
 TEST_CASE("design: the human report shows the library's sensitivity in nA/ppm") {
     const std::string file = examples + "garage_co.toml";
     const auto f = counterflux::tool::read_sensor_file(file);

@@ -158,7 +158,12 @@ int run_design(const design_options& o, std::ostream& out) {
     s << "  current            " << format_current(current) << " at " << format_concentration(y) << "\n";
     s << "  linearity ratio    " << format_number(linearity, 5) << " (current / dilute-linear current at "
       << format_concentration(y) << ")\n";
-    s << "  span factor        " << format_number(span, 5) << " (sensitivity / sensitivity at reference)\n";
+    // The span factor is of the reading: S / S_ref for a mole fraction, (S/P) / (S_ref/P_ref)
+    // for a partial pressure (signal.hpp).
+    s << "  span factor        " << format_number(span, 5)
+      << (m.reading == counterflux::reading_kind::mole_fraction
+              ? " (sensitivity / sensitivity at reference)\n"
+              : " ((S/P) / (S_ref/P_ref): sensitivity to partial pressure / that at reference)\n");
     s << "  temperature coeff. " << format_signed(tc * 100.0) << " %/K\n";
     s << "  pressure coeff.    " << format_signed(pc * 100.0 * 1000.0) << " %/kPa\n";
     s << "  elements, outside in:\n";
