@@ -67,12 +67,14 @@ int run_design(const design_options& o, std::ostream& out) {
             std::vector<diagnostic> details;
             if (const auto d = diagnose_condition(f, t, p, format_temperature(t) + ", " + format_pressure(p)))
                 details.push_back(*d);
-            else if (at_y)
-                if (const auto why = singular_log_law(f, y, o.concentration ? "--concentration" : "full_scale")) {
+            else if (at_y) {
+                const char* knob = o.concentration ? "--concentration" : "full_scale";
+                if (const auto why = singular_log_law(f, y, knob)) {
                     source_place place;
                     place.subject = subject;
                     details.push_back(diagnostic{place, *why});
                 }
+            }
             require_ok(r.code, what, subject, details);
         }
         return r.value;
