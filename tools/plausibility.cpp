@@ -33,8 +33,11 @@ const value_range temperature_range{100.0, 1000.0, true, true, "a temperature fr
                                     "the range of the diffusivity correlations"};
 const value_range pressure_range{100.0, 1.0e7, true, true, "a pressure from 100 Pa to 10000 kPa", "100 Pa .. 10000 kPa",
                                  "a low-density gas, D ~ 1/P"};
-const value_range permeability_range{0.0, 1.0e-6, false, false, "a permeability above 0 and below 1e-6 mol/(m s Pa)",
-                                     "0 .. 1e-6 mol/(m s Pa), both excluded", ""};
+// 1e-6 Barrer (3.3e-22 mol/(m s Pa)) is far below any gas-separation film;
+// 1e-6 mol/(m s Pa) (some 3e9 Barrer) far above (common practice, no source).
+const value_range permeability_range{3.3464e-22, 1.0e-6, true, false,
+                                     "a permeability from 1e-6 Barrer (3.3464e-22 mol/(m s Pa)) to below 1e-6 mol/(m s Pa)",
+                                     "3.3464e-22 .. 1e-6 mol/(m s Pa), the upper end excluded", ""};
 const value_range activation_energy_range{-5.0e5, 5.0e5, false, false, "a molar energy of magnitude below 500 kJ/mol",
                                           "-500 kJ/mol .. 500 kJ/mol, both excluded", ""};
 const value_range concentration_range{0.0, 1.0, true, true, "a concentration from 0 to 100 %", "0 .. 100 %", ""};

@@ -53,7 +53,7 @@ extern const value_range temperature_range;
 /// 100 Pa to 10000 kPa (1e7 Pa; the messages print kPa, MPa is not an accepted
 /// unit); the models are for a low-density gas (D ~ 1/P).
 extern const value_range pressure_range;
-/// Membrane permeability: above 0, below 1e-6 mol/(m s Pa) (some 3e9 Barrer).
+/// Membrane permeability: from 1e-6 Barrer (3.3464e-22 mol/(m s Pa)) to below 1e-6 mol/(m s Pa) (some 3e9 Barrer).
 extern const value_range permeability_range;
 /// Membrane activation energy: magnitude below 500 kJ/mol.
 extern const value_range activation_energy_range;
