@@ -255,15 +255,19 @@ inline result<T> pressure_coefficient_per_Pa(const sensor_model<T, N>& m, T temp
 template <class T, std::size_t N>
 inline result<T> linearity_ratio(const sensor_model<T, N>& m, T temperature_K, T pressure_Pa,
                                  T mole_fraction) noexcept {
-    const result<T> s = sensitivity_A_per_mol_per_mol(m, temperature_K, pressure_Pa);
-    const result<T> i = limiting_current_A(m, temperature_K, pressure_Pa, mole_fraction);
-    status code = s.code | i.code;
-    if (!(s.value > T(0))) return {T(1), code | status::out_of_domain};
+    // I / (S y) = (n F F_A) / (n F / R * y) = F_A R / y: one resolve of the series.
+    if (!detail::finite(mole_fraction)) return {T(1), status::not_finite};
+    status code = status::ok;
     const T y = detail::clamp_fraction(mole_fraction, code);
+    const result<series_transport<T, N>> st = transport_at(m, temperature_K, pressure_Pa);
+    code |= st.code;
+    if (st.value.count == 0) return {T(1), code | status::out_of_domain};
+    const T resistance = dilute_resistance_s_per_mol(st.value);
+    if (!(detail::finite(resistance) && resistance > T(0))) return {T(1), code | status::out_of_domain};
     if (!(y > T(0))) return {T(1), code};
-    const T linear = s.value * y;
-    if (!(linear > T(0))) return {T(1), code};  // S y underflows: the dilute limit, where the ratio is 1
-    return detail::checked(i.value / linear, code);
+    const result<T> f = molar_flow(st.value, y);
+    if (!(f.value > T(0))) return {T(1), code | f.code};  // the flow underflows: the dilute limit, ratio 1
+    return detail::checked(f.value * resistance / y, code | f.code);
 }
 
 /// What the design report says of one element.
