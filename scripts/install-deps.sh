@@ -6,8 +6,8 @@ set -euo pipefail
 packages=(
   cmake ninja-build g++ clang
   libtomlplusplus-dev libcli11-dev nlohmann-json3-dev libeigen3-dev
-  doctest-dev libbenchmark-dev
-  gcc-arm-none-eabi libnewlib-arm-none-eabi libstdc++-arm-none-eabi-newlib
+  doctest-dev libbenchmark-dev libplplot-dev valgrind
+  gcc-arm-none-eabi libnewlib-arm-none-eabi libstdc++-arm-none-eabi-newlib qemu-system-arm
   python3 git ca-certificates
 )
 

@@ -20,6 +20,11 @@ enum class status : std::uint16_t {
     unknown_gas = 1u << 3,    ///< a gas name is not in the table
     below_range = 1u << 4,    ///< an input was below an axis or range; the edge value was used
     above_range = 1u << 5,    ///< an input was above an axis or range; the edge value was used
+    first_axis_below = 1u << 6,   ///< table lookup: the first axis (temperature) input was below its range
+    first_axis_above = 1u << 7,   ///< table lookup: the first axis (temperature) input was above its range
+    second_axis_below = 1u << 8,  ///< table lookup: the second axis (pressure) input was below its range
+    second_axis_above = 1u << 9,  ///< table lookup: the second axis (pressure) input was above its range
+    invalid_record = 1u << 10,    ///< a calibration record failed validation (see record.hpp for why)
 };
 
 /// Union of two flag sets.
@@ -47,6 +52,11 @@ constexpr const char* describe(status s) noexcept {
     if (has(s, status::unknown_gas)) return "unknown gas";
     if (has(s, status::below_range)) return "input below range, edge value used";
     if (has(s, status::above_range)) return "input above range, edge value used";
+    if (has(s, status::first_axis_below)) return "first table axis below range, edge value used";
+    if (has(s, status::first_axis_above)) return "first table axis above range, edge value used";
+    if (has(s, status::second_axis_below)) return "second table axis below range, edge value used";
+    if (has(s, status::second_axis_above)) return "second table axis above range, edge value used";
+    if (has(s, status::invalid_record)) return "invalid calibration record";
     return "ok";
 }
 
