@@ -1,0 +1,464 @@
+// counterflux/table.hpp - lookup tables on uniform axes: linear (1-D) and
+// bilinear (2-D) interpolation in float or double, and the same on q15 data
+// (int16 with a stated scale and offset) with an integer-only path for a
+// microcontroller without FPU.
+//
+// Algorithm: piecewise-linear and bilinear interpolation on a regular grid
+// (Press, Teukolsky, Vetterling & Flannery, Numerical Recipes, 3rd ed., 2007,
+// sec. 3.6.1, eq. 3.6.5):
+//     v(x0, x1) = (1 - f0) [(1 - f1) v(i0, i1) + f1 v(i0, i1 + 1)]
+//               +      f0  [(1 - f1) v(i0 + 1, i1) + f1 v(i0 + 1, i1 + 1)],
+// with i = floor((x - origin) / step) and f = (x - origin) / step - i. On a
+// uniform axis the cell is found without search: the position t = (x - origin)
+// * (1/step) uses the stored reciprocal of the step (no division per call).
+//
+// Rules (docs/models.md, "Compensation tables"):
+//   - the index is a floor, never a truncation towards zero: positions below the
+//     origin clamp to the first node, they never extrapolate from cell 0;
+//   - the last node is reachable: x at or beyond the last node gives index
+//     count - 2 with fraction exactly 1, so the value is exactly the last node's;
+//   - out-of-range inputs clamp to the edge and set the axis flag
+//     (first_axis_below / first_axis_above for axis 0 = temperature,
+//     second_axis_below / second_axis_above for axis 1 = pressure) together with
+//     the generic below_range / above_range; NaN clamps to the first node and
+//     sets not_finite, +-inf clamps to its edge and sets not_finite;
+//   - q15: an int16 q stands for offset + scale * q / 32768; encoding rounds to
+//     nearest and saturates; the interpolation weights are Q15 integers f and
+//     32768 - f, so 1 - fraction is exact, and the blends round to nearest.
+#ifndef COUNTERFLUX_TABLE_HPP
+#define COUNTERFLUX_TABLE_HPP
+
+#include <array>
+#include <cstddef>
+#include <cstdint>
+#include <limits>
+
+#include "detail/math.hpp"
+#include "status.hpp"
+
+namespace counterflux {
+
+// ---------------------------------------------------------------------------
+// Uniform axes
+
+/// A uniform axis: node i is origin + i * step, for i in 0 .. count - 1 (count >= 2);
+/// inv_step = 1 / step is stored so that a lookup never divides.
+template <class T>
+struct uniform_axis {
+    T origin;           ///< first node, in the unit of the axis (K, Pa, ...)
+    T step;             ///< node spacing, unit of the axis
+    T inv_step;         ///< 1 / step (0 for a degenerate axis with step 0)
+    std::size_t count;  ///< number of nodes, >= 2
+};
+
+/// The axis of count nodes from `from` to `to` (count < 2 is raised to 2). The
+/// step is (to - from) / (count - 1), nudged by at most an ulp where that makes
+/// the last node equal `to` exactly; inv_step = 1 / step (0 when from == to).
+template <class T>
+constexpr uniform_axis<T> make_uniform_axis(T from, T to, std::size_t count) noexcept {
+    const std::size_t n = count < 2u ? std::size_t(2) : count;
+    const T cells = static_cast<T>(n - 1u);
+    T step = (to - from) / cells;
+    // (to - from) / cells is the correctly rounded step, but from + cells * step may
+    // miss `to` by an ulp; a neighbour of the step often hits it exactly.
+    if (from + cells * step != to) {
+        const T eps = std::numeric_limits<T>::epsilon();
+        const T candidates[2] = {step + step * eps, step - step * eps};
+        for (const T c : candidates)
+            if (from + cells * c == to) { step = c; break; }
+    }
+    const T inv = step != T(0) ? T(1) / step : T(0);
+    return uniform_axis<T>{from, step, detail::finite(inv) ? inv : T(0), n};
+}
+
+/// Node i of axis a: origin + i * step, in the unit of the axis.
+template <class T>
+constexpr T axis_node(const uniform_axis<T>& a, std::size_t i) noexcept {
+    return a.origin + static_cast<T>(i) * a.step;
+}
+
+/// Where x lies on an axis: value = (1 - fraction) v[index] + fraction v[index + 1].
+template <class T>
+struct axis_position {
+    std::size_t index;  ///< cell, 0 .. count - 2
+    T fraction;         ///< position in the cell, 0 .. 1 (exactly 1 at the last node)
+    status code;        ///< ok, or the axis flag with below_range / above_range, not_finite
+};
+
+namespace detail {
+
+/// The flags of an axis lookup as a status: each set bool contributes its flag.
+constexpr status axis_flags(bool below, bool above, bool not_finite_input, status below_flag,
+                            status above_flag) noexcept {
+    const std::uint16_t none = 0u;
+    const std::uint16_t b = below ? static_cast<std::uint16_t>(below_flag | status::below_range) : none;
+    const std::uint16_t a = above ? static_cast<std::uint16_t>(above_flag | status::above_range) : none;
+    const std::uint16_t n = not_finite_input ? static_cast<std::uint16_t>(status::not_finite) : none;
+    return static_cast<status>(static_cast<std::uint16_t>(b | a | n));
+}
+
+/// One linear blend (1 - f) v0 + f v1.
+template <class T>
+constexpr T lerp(T v0, T v1, T f) noexcept {
+    return (T(1) - f) * v0 + f * v1;
+}
+
+/// Bilinear blend of the cell at (p0, p1) of values[i0 * stride + i1].
+template <class T>
+constexpr T bilinear(const T* values, std::size_t stride, const axis_position<T>& p0,
+                     const axis_position<T>& p1) noexcept {
+    const T* row0 = values + p0.index * stride + p1.index;
+    const T* row1 = row0 + stride;
+    return lerp(lerp(row0[0], row0[1], p1.fraction), lerp(row1[0], row1[1], p1.fraction), p0.fraction);
+}
+
+}  // namespace detail
+
+/// The cell and fraction of x on axis a, clamped to the axis: below the first
+/// node (or NaN) index 0 / fraction 0, at or above the last node index count - 2 /
+/// fraction 1. below_flag or above_flag (with below_range / above_range) when x
+/// is outside [first node, last node]; not_finite for NaN or +-inf. Search-free,
+/// no division; the flags and clamps compile to selects.
+template <class T>
+constexpr axis_position<T> locate(const uniform_axis<T>& a, T x, status below_flag, status above_flag) noexcept {
+    const std::size_t last_cell = a.count >= 2u ? a.count - 2u : std::size_t(0);
+    const T top = static_cast<T>(last_cell + 1u);
+    const T last = a.origin + top * a.step;
+    const bool is_nan = !(x == x);
+    const bool below = x < a.origin;
+    const bool above = x > last;
+    const bool infinite = x == std::numeric_limits<T>::infinity() || x == -std::numeric_limits<T>::infinity();
+    T t = (x - a.origin) * a.inv_step;
+    t = t > T(0) ? t : T(0);  // also maps NaN to 0
+    t = t < top ? t : top;
+    // t >= 0 here, so the conversion (a truncation) is the floor.
+    std::size_t i = static_cast<std::size_t>(t);
+    i = i < last_cell ? i : last_cell;
+    T f = t - static_cast<T>(i);
+    f = f < T(1) ? f : T(1);
+    f = x >= last ? T(1) : f;  // the last node exactly, whatever t rounded to
+    return axis_position<T>{i, f, detail::axis_flags(below, above, is_nan || infinite, below_flag, above_flag)};
+}
+
+namespace detail {
+
+/// 1-D lookup with the caller's axis flags; out_of_domain and 0 when values is
+/// null or the axis has fewer than 2 nodes.
+template <class T>
+constexpr result<T> interpolate_1d_flagged(const uniform_axis<T>& a, const T* values, T x, status below_flag,
+                                           status above_flag) noexcept {
+    if (values == nullptr || a.count < 2u) return {T(0), status::out_of_domain};
+    const axis_position<T> p = locate(a, x, below_flag, above_flag);
+    return {lerp(values[p.index], values[p.index + 1u], p.fraction), p.code};
+}
+
+}  // namespace detail
+
+/// Linear interpolation of values[0 .. a.count - 1] on axis a at x, in the unit
+/// of the values. Clamped at the edges with first_axis_below / first_axis_above
+/// (and below_range / above_range); not_finite for non-finite x.
+template <class T>
+constexpr result<T> interpolate_1d(const uniform_axis<T>& a, const T* values, T x) noexcept {
+    return detail::interpolate_1d_flagged(a, values, x, status::first_axis_below, status::first_axis_above);
+}
+
+/// Bilinear interpolation of values[i0 * a1.count + i1] on axes a0 (first, e.g.
+/// temperature) and a1 (second, e.g. pressure) at (x0, x1), in the unit of the
+/// values. Clamped at every edge with that axis's flag; not_finite for
+/// non-finite input.
+template <class T>
+constexpr result<T> interpolate_2d(const uniform_axis<T>& a0, const uniform_axis<T>& a1, const T* values, T x0,
+                                   T x1) noexcept {
+    if (values == nullptr || a0.count < 2u || a1.count < 2u) return {T(0), status::out_of_domain};
+    const axis_position<T> p0 = locate(a0, x0, status::first_axis_below, status::first_axis_above);
+    const axis_position<T> p1 = locate(a1, x1, status::second_axis_below, status::second_axis_above);
+    return {detail::bilinear(values, a1.count, p0, p1), p0.code | p1.code};
+}
+
+// ---------------------------------------------------------------------------
+// Fixed-size float / double tables
+
+/// N values on a uniform axis, interpolated linearly.
+template <class T, std::size_t N>
+struct table_1d {
+    static_assert(N >= 2, "a table needs at least two nodes");
+    uniform_axis<T> axis;     ///< the axis (count == N)
+    std::array<T, N> values;  ///< value at each node
+
+    /// The interpolated value at x (see interpolate_1d), unit of the values.
+    constexpr result<T> operator()(T x) const noexcept { return interpolate_1d(axis, values.data(), x); }
+};
+
+/// N0 x N1 values on two uniform axes, interpolated bilinearly; values[i0 * N1 + i1].
+template <class T, std::size_t N0, std::size_t N1>
+struct table_2d {
+    static_assert(N0 >= 2 && N1 >= 2, "a table needs at least two nodes per axis");
+    uniform_axis<T> axis0;          ///< first axis (temperature), count == N0
+    uniform_axis<T> axis1;          ///< second axis (pressure), count == N1
+    std::array<T, N0 * N1> values;  ///< row-major: values[i0 * N1 + i1]
+
+    /// The interpolated value at (x0, x1) (see interpolate_2d), unit of the values.
+    constexpr result<T> operator()(T x0, T x1) const noexcept {
+        return interpolate_2d(axis0, axis1, values.data(), x0, x1);
+    }
+};
+
+/// A 1-D table from `from` to `to` holding the N given node values.
+template <class T, std::size_t N>
+constexpr table_1d<T, N> make_table_1d(T from, T to, const T (&values)[N]) noexcept {
+    table_1d<T, N> t{make_uniform_axis(from, to, N), {}};
+    for (std::size_t i = 0; i < N; ++i) t.values[i] = values[i];
+    return t;
+}
+
+/// A 2-D table on [from0, to0] x [from1, to1] holding the N0 x N1 node values
+/// row-major (values[i0 * N1 + i1]); N0 and N1 are given explicitly.
+template <class T, std::size_t N0, std::size_t N1>
+constexpr table_2d<T, N0, N1> make_table_2d(T from0, T to0, T from1, T to1, const T (&values)[N0 * N1]) noexcept {
+    table_2d<T, N0, N1> t{make_uniform_axis(from0, to0, N0), make_uniform_axis(from1, to1, N1), {}};
+    for (std::size_t i = 0; i < N0 * N1; ++i) t.values[i] = values[i];
+    return t;
+}
+
+// ---------------------------------------------------------------------------
+// q15 values: int16 q stands for offset + scale * q / 32768
+
+/// Scale and offset of q15 data: value = offset + scale * q / 32768.
+template <class T>
+struct q15_scale {
+    T scale;   ///< value change per 32768 counts, unit of the values
+    T offset;  ///< value at q = 0, unit of the values
+};
+
+/// The scale that maps [lo, hi] onto q = -32767 .. 32767 (the ends exactly, up to
+/// rounding); lo and hi may come in either order. A degenerate range (lo == hi)
+/// gives scale 0 (every q decodes to lo); non-finite ends give {0, 0}.
+template <class T>
+constexpr q15_scale<T> q15_scale_for(T lo, T hi) noexcept {
+    if (!detail::finite(lo) || !detail::finite(hi)) return q15_scale<T>{T(0), T(0)};
+    if (hi < lo) {
+        const T lower = hi;
+        hi = lo;
+        lo = lower;
+    }
+    // Halves first: hi - lo overflows for ends near +-max.
+    const T half = hi / T(2) - lo / T(2);
+    const T mid = lo / T(2) + hi / T(2);
+    return q15_scale<T>{half * (T(32768) / T(32767)), mid};
+}
+
+/// value in q15 counts for scale s: round to nearest (halves away from zero),
+/// saturated to -32768 .. 32767; NaN and a zero scale give 0.
+template <class T>
+constexpr std::int16_t q15_encode(T value, const q15_scale<T>& s) noexcept {
+    if (!(value == value) || !(s.scale != T(0)) || !detail::finite(s.scale)) return 0;
+    T x = (value - s.offset) * (T(32768) / s.scale);
+    x = x > T(-32768) ? x : T(-32768);  // saturate first: +-inf and huge values land on the ends
+    x = x < T(32767) ? x : T(32767);
+    // Round to nearest without std::round (not constexpr) and without x + 0.5,
+    // which rounds 0.49999997f up: split off the integer part, which is exact.
+    const std::int32_t whole = static_cast<std::int32_t>(x);  // towards zero
+    const T rest = x - static_cast<T>(whole);                 // exact, |rest| < 1
+    std::int32_t q = whole;
+    if (rest >= T(0.5)) ++q;
+    if (rest <= T(-0.5)) --q;
+    q = q > 32767 ? 32767 : (q < -32768 ? -32768 : q);
+    return static_cast<std::int16_t>(q);
+}
+
+/// The value that q15 count q stands for under scale s: offset + scale * q / 32768.
+template <class T>
+constexpr T q15_decode(std::int16_t q, const q15_scale<T>& s) noexcept {
+    return s.offset + s.scale * (static_cast<T>(q) * (T(1) / T(32768)));
+}
+
+// ---------------------------------------------------------------------------
+// Integer-only path: integer axes (e.g. temperature in mK, pressure in Pa), q15 data
+
+/// An integer uniform axis: node i is origin + i * step (step >= 2); inv_step_q32 =
+/// round(2^32 / step) makes the cell a multiply and a shift. count 0 marks an
+/// invalid axis (every lookup returns out_of_domain).
+struct q15_axis {
+    std::int32_t origin;         ///< first node, axis unit (mK, Pa, ...)
+    std::int32_t step;           ///< node spacing, axis unit, >= 2
+    std::uint32_t inv_step_q32;  ///< round(2^32 / step)
+    std::size_t count;           ///< number of nodes, >= 2 (0: invalid)
+};
+
+/// The integer axis of count nodes from origin in steps of step. count is set to
+/// 0 (invalid) when step < 2, count < 2 or the last node does not fit int32.
+constexpr q15_axis make_q15_axis(std::int32_t origin, std::int32_t step, std::size_t count) noexcept {
+    const std::int64_t last = static_cast<std::int64_t>(origin) +
+                              static_cast<std::int64_t>(step) * static_cast<std::int64_t>(count > 0u ? count - 1u : 0u);
+    const bool valid = step >= 2 && count >= 2u && count <= std::size_t(0x7fffffff) &&
+                       last <= std::int64_t(std::numeric_limits<std::int32_t>::max());
+    const std::uint64_t two32 = std::uint64_t(1) << 32;
+    const std::uint32_t inv =
+        step >= 2 ? static_cast<std::uint32_t>((two32 + static_cast<std::uint64_t>(step) / 2u) /
+                                                static_cast<std::uint64_t>(step))
+                  : 0u;
+    return q15_axis{origin, step, inv, valid ? count : std::size_t(0)};
+}
+
+/// Where an integer x lies on a q15 axis: cell and Q15 fraction 0 .. 32768.
+struct q15_position {
+    std::size_t index;       ///< cell, 0 .. count - 2
+    std::int32_t fraction;   ///< Q15 fraction of the cell, 0 .. 32768 (32768 at the last node)
+    status code;             ///< ok, or the axis flag with below_range / above_range
+};
+
+namespace detail {
+
+/// The cell and Q15 fraction of x on a valid q15 axis, clamped with the given flags.
+/// Integer only: one 32 x 32 -> 64-bit multiply for the position.
+constexpr q15_position q15_locate(const q15_axis& a, std::int32_t x, status below_flag, status above_flag) noexcept {
+    const std::size_t last_cell = a.count - 2u;
+    const std::int32_t last = a.origin + a.step * static_cast<std::int32_t>(last_cell + 1u);  // fits: see make_q15_axis
+    if (x <= a.origin) return {0u, 0, axis_flags(x < a.origin, false, false, below_flag, above_flag)};
+    if (x >= last) return {last_cell, 32768, axis_flags(false, x > last, false, below_flag, above_flag)};
+    // 0 < d < step * (count - 1) <= 2^31: unsigned arithmetic, no overflow.
+    const std::uint32_t d = static_cast<std::uint32_t>(x) - static_cast<std::uint32_t>(a.origin);
+    const std::uint64_t p = static_cast<std::uint64_t>(d) * a.inv_step_q32;  // cells in Q32
+    std::size_t i = static_cast<std::size_t>(p >> 32);
+    const std::uint32_t frac32 = static_cast<std::uint32_t>(p);
+    // Round the Q32 fraction to Q15 (0 .. 32768) without overflowing 32 bits.
+    std::int32_t f = static_cast<std::int32_t>((frac32 >> 17) + ((frac32 >> 16) & 1u));
+    if (i > last_cell) { i = last_cell; f = 32768; }  // rounding of inv_step just past the last node
+    return {i, f, status::ok};
+}
+
+/// round((32768 - f) q0 + f q1) / 32768) for f in 0 .. 32768: exact weights, the
+/// sum is at most 2^30 in magnitude, int32 throughout. The shift is done on a
+/// non-negative unsigned value (no implementation-defined signed shift).
+constexpr std::int16_t q15_blend(std::int32_t q0, std::int32_t q1, std::int32_t f) noexcept {
+    const std::int32_t sum = (32768 - f) * q0 + f * q1 + 16384;  // |sum| <= 2^30 + 2^14
+    const std::uint32_t biased = static_cast<std::uint32_t>(sum) + (std::uint32_t(1) << 30);  // >= 0, < 2^31 + 2^15
+    return static_cast<std::int16_t>(static_cast<std::int32_t>(biased >> 15) - 32768);
+}
+
+/// The Q15 fraction 0 .. 32768 nearest to a real fraction f in [0, 1].
+template <class T>
+constexpr std::int32_t q15_fraction(T f) noexcept {
+    const std::int32_t q = static_cast<std::int32_t>(f * T(32768) + T(0.5));
+    return q < 0 ? 0 : (q > 32768 ? 32768 : q);
+}
+
+/// Bilinear blend of q15 data at Q15 fractions f0, f1 in the cell at (i0, i1):
+/// the two rows are rounded to q15 first, then blended (at most one count of
+/// rounding in all).
+constexpr std::int16_t q15_bilinear(const std::int16_t* q, std::size_t stride, std::size_t i0, std::int32_t f0,
+                                    std::size_t i1, std::int32_t f1) noexcept {
+    const std::int16_t* row0 = q + i0 * stride + i1;
+    const std::int16_t* row1 = row0 + stride;
+    const std::int16_t r0 = q15_blend(row0[0], row0[1], f1);
+    const std::int16_t r1 = q15_blend(row1[0], row1[1], f1);
+    return q15_blend(r0, r1, f0);
+}
+
+}  // namespace detail
+
+/// Linear interpolation of q15 data q[0 .. a.count - 1] on integer axis a at x,
+/// in q15 counts; integer arithmetic only. Clamped with first_axis_below /
+/// first_axis_above (and below_range / above_range); out_of_domain and 0 for an
+/// invalid axis or null data.
+constexpr result<std::int16_t> q15_interpolate_1d(const q15_axis& a, const std::int16_t* q, std::int32_t x) noexcept {
+    if (q == nullptr || a.count < 2u) return {std::int16_t(0), status::out_of_domain};
+    const q15_position p = detail::q15_locate(a, x, status::first_axis_below, status::first_axis_above);
+    return {detail::q15_blend(q[p.index], q[p.index + 1u], p.fraction), p.code};
+}
+
+/// Bilinear interpolation of q15 data q[i0 * a1.count + i1] on integer axes a0
+/// (temperature) and a1 (pressure) at (x0, x1), in q15 counts; integer only.
+/// Clamped with each axis's flag; out_of_domain and 0 for an invalid axis or null data.
+constexpr result<std::int16_t> q15_interpolate_2d(const q15_axis& a0, const q15_axis& a1, const std::int16_t* q,
+                                                  std::int32_t x0, std::int32_t x1) noexcept {
+    if (q == nullptr || a0.count < 2u || a1.count < 2u) return {std::int16_t(0), status::out_of_domain};
+    const q15_position p0 = detail::q15_locate(a0, x0, status::first_axis_below, status::first_axis_above);
+    const q15_position p1 = detail::q15_locate(a1, x1, status::second_axis_below, status::second_axis_above);
+    return {detail::q15_bilinear(q, a1.count, p0.index, p0.fraction, p1.index, p1.fraction), p0.code | p1.code};
+}
+
+namespace detail {
+
+/// 1-D lookup of q15 data with real input and the caller's flags: decoded value.
+template <class T>
+constexpr result<T> q15_interpolate_1d_flagged(const uniform_axis<T>& a, const std::int16_t* q,
+                                               const q15_scale<T>& s, T x, status below_flag,
+                                               status above_flag) noexcept {
+    if (q == nullptr || a.count < 2u) return {s.offset, status::out_of_domain};
+    const axis_position<T> p = locate(a, x, below_flag, above_flag);
+    return {q15_decode(q15_blend(q[p.index], q[p.index + 1u], q15_fraction(p.fraction)), s), p.code};
+}
+
+}  // namespace detail
+
+/// Linear interpolation of q15 data on a real axis at x, decoded with scale s, in
+/// the unit of the values: the fraction is found in T and rounded to Q15, the
+/// blend is integer. Flags as interpolate_1d.
+template <class T>
+constexpr result<T> interpolate_1d(const uniform_axis<T>& a, const std::int16_t* q, const q15_scale<T>& s,
+                                   T x) noexcept {
+    return detail::q15_interpolate_1d_flagged(a, q, s, x, status::first_axis_below, status::first_axis_above);
+}
+
+/// Bilinear interpolation of q15 data q[i0 * a1.count + i1] on real axes at
+/// (x0, x1), decoded with scale s, in the unit of the values. Flags as interpolate_2d.
+template <class T>
+constexpr result<T> interpolate_2d(const uniform_axis<T>& a0, const uniform_axis<T>& a1, const std::int16_t* q,
+                                   const q15_scale<T>& s, T x0, T x1) noexcept {
+    if (q == nullptr || a0.count < 2u || a1.count < 2u) return {s.offset, status::out_of_domain};
+    const axis_position<T> p0 = locate(a0, x0, status::first_axis_below, status::first_axis_above);
+    const axis_position<T> p1 = locate(a1, x1, status::second_axis_below, status::second_axis_above);
+    const std::int16_t v = detail::q15_bilinear(q, a1.count, p0.index, detail::q15_fraction(p0.fraction), p1.index,
+                                                detail::q15_fraction(p1.fraction));
+    return {q15_decode(v, s), p0.code | p1.code};
+}
+
+/// N q15 values on an integer axis, interpolated linearly in integer arithmetic.
+template <std::size_t N>
+struct q15_table_1d {
+    static_assert(N >= 2, "a table needs at least two nodes");
+    q15_axis axis;                       ///< integer axis (count == N)
+    std::array<std::int16_t, N> values;  ///< q15 value at each node
+
+    /// The interpolated value at x, in q15 counts (see q15_interpolate_1d).
+    constexpr result<std::int16_t> operator()(std::int32_t x) const noexcept {
+        return q15_interpolate_1d(axis, values.data(), x);
+    }
+};
+
+/// N0 x N1 q15 values on two integer axes, interpolated bilinearly; values[i0 * N1 + i1].
+template <std::size_t N0, std::size_t N1>
+struct q15_table_2d {
+    static_assert(N0 >= 2 && N1 >= 2, "a table needs at least two nodes per axis");
+    q15_axis axis0;                            ///< first axis (temperature), count == N0
+    q15_axis axis1;                            ///< second axis (pressure), count == N1
+    std::array<std::int16_t, N0 * N1> values;  ///< row-major q15 values
+
+    /// The interpolated value at (x0, x1), in q15 counts (see q15_interpolate_2d).
+    constexpr result<std::int16_t> operator()(std::int32_t x0, std::int32_t x1) const noexcept {
+        return q15_interpolate_2d(axis0, axis1, values.data(), x0, x1);
+    }
+};
+
+/// A q15 1-D table of the N given counts on the integer axis origin + i * step.
+template <std::size_t N>
+constexpr q15_table_1d<N> make_q15_table_1d(std::int32_t origin, std::int32_t step,
+                                            const std::int16_t (&values)[N]) noexcept {
+    q15_table_1d<N> t{make_q15_axis(origin, step, N), {}};
+    for (std::size_t i = 0; i < N; ++i) t.values[i] = values[i];
+    return t;
+}
+
+/// A q15 2-D table of the N0 x N1 given counts (row-major) on two integer axes.
+template <std::size_t N0, std::size_t N1>
+constexpr q15_table_2d<N0, N1> make_q15_table_2d(std::int32_t origin0, std::int32_t step0, std::int32_t origin1,
+                                                 std::int32_t step1, const std::int16_t (&values)[N0 * N1]) noexcept {
+    q15_table_2d<N0, N1> t{make_q15_axis(origin0, step0, N0), make_q15_axis(origin1, step1, N1), {}};
+    for (std::size_t i = 0; i < N0 * N1; ++i) t.values[i] = values[i];
+    return t;
+}
+
+}  // namespace counterflux
+
+#endif  // COUNTERFLUX_TABLE_HPP
