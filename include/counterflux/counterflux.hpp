@@ -5,6 +5,7 @@
 
 #include "ambient.hpp"
 #include "barrier.hpp"
+#include "compensation.hpp"
 #include "constants.hpp"
 #include "diffusivity.hpp"
 #include "flux.hpp"
@@ -12,6 +13,7 @@
 #include "series.hpp"
 #include "signal.hpp"
 #include "status.hpp"
+#include "table.hpp"
 #include "units.hpp"
 
 #endif  // COUNTERFLUX_COUNTERFLUX_HPP
