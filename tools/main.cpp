@@ -74,6 +74,7 @@ int run(int argc, char** argv) {
     const std::vector<verb> verbs = {
         add_diffusivity_verb(app, std::cout),
         add_design_verb(app, std::cout),
+        add_table_verb(app, std::cout),
     };
 
     try {

@@ -604,14 +604,16 @@ std::optional<axis_spec> read_axis(reader& r, const toml::table& parent, const c
     r.check_keys(*t, where, {"from", "to", "points"});
     const auto from = r.quantity(*t, "from", k, true, place, where, dotted + ".from");
     const auto to = r.quantity(*t, "to", k, true, place, where, dotted + ".to");
-    const auto points = r.integer(*t, "points", true, place, where, dotted + ".points", 2, 4096);
-    if (!from || !to || !points) return std::nullopt;
+    // points may be left out: the table verb then chooses the smallest grid
+    // that meets table.max_error (which must then be given).
+    const auto points = r.integer(*t, "points", false, place, where, dotted + ".points", 2, 4096);
+    if (!from || !to || (!points && t->contains("points"))) return std::nullopt;
     const bool from_ok = r.in_range(from, dotted + ".from", range);
     const bool to_ok = r.in_range(to, dotted + ".to", range);
     if (!from_ok || !to_ok) return std::nullopt;
     if (!r.require_that(to->value > from->value, *to, dotted + ".to", "it must be greater than 'from'"))
         return std::nullopt;
-    return axis_spec{from->value, to->value, static_cast<unsigned>(points->value)};
+    return axis_spec{from->value, to->value, points ? static_cast<unsigned>(points->value) : 0u, place};
 }
 
 void read_table(reader& r, const toml::table& t, sensor_file& out, const source_place& header) {
@@ -636,8 +638,41 @@ void read_table(reader& r, const toml::table& t, sensor_file& out, const source_
                            "expected a relative error above zero and below 50 %"))
             spec.max_error = v->value;
         else ok = false;
+        spec.max_error_given = true;
+        spec.max_error_place = v->place;
     } else ok &= !t.contains("max_error");
+    if (ok && !spec.max_error_given) {
+        for (const axis_spec* a : {&spec.temperature, &spec.pressure})
+            if (a->points == 0) {
+                r.error(a->place, std::string("'table.") + (a == &spec.temperature ? "temperature" : "pressure") +
+                                      "' has no 'points'; give the number of nodes, or give 'table.max_error' "
+                                      "and the grid is chosen to meet it");
+                ok = false;
+            }
+    }
     if (ok) out.table = spec;
+}
+
+void read_zero(reader& r, const toml::table& t, sensor_file& out, const source_place& header) {
+    const std::string where = "[zero]";
+    r.check_keys(t, where, {"current", "temperature_coefficient"});
+    zero_spec spec;
+    spec.place = header;
+    bool ok = true;
+    if (auto v = r.quantity(t, "current", kind::current, true, header, where, "zero.current")) {
+        if (r.require_that(std::fabs(v->value) <= 1.0e-3, *v, "zero.current",
+                           "expected a zero current of at most 1 mA in magnitude"))
+            spec.current_A = v->value;
+        else ok = false;
+    } else ok = false;
+    if (auto v = r.quantity(t, "temperature_coefficient", kind::dimensionless, false, header, where,
+                            "zero.temperature_coefficient")) {
+        if (r.require_that(std::fabs(v->value) <= 0.5, *v, "zero.temperature_coefficient",
+                           "expected a coefficient per kelvin from -0.5 to 0.5 (a bare number, 1/K)"))
+            spec.per_K = v->value;
+        else ok = false;
+    } else ok &= !t.contains("temperature_coefficient");
+    if (ok) out.zero = spec;
 }
 
 void read_response(reader& r, const toml::table& t, sensor_file& out, const source_place& header) {
@@ -857,7 +892,7 @@ sensor_file parse_sensor_file(std::string_view text, const std::string& path) {
     file_start.line = 1;
     file_start.column = 1;
 
-    r.check_keys(root, "the file", {"sensor", "reference", "diffusivity", "barrier", "table", "response"});
+    r.check_keys(root, "the file", {"sensor", "reference", "diffusivity", "barrier", "zero", "table", "response"});
 
     const toml::table* sensor = r.table(root, "sensor", true, file_start, "symbol, target, background, ...");
     if (sensor) read_sensor(r, *sensor, out, r.at(*sensor));
@@ -882,6 +917,7 @@ sensor_file parse_sensor_file(std::string_view text, const std::string& path) {
             for (std::size_t i = 0; i < array.size(); ++i) read_barrier(r, *array.get(i)->as_table(), i, out);
     }
 
+    if (const toml::table* t = r.table(root, "zero", false, file_start, "")) read_zero(r, *t, out, r.at(*t));
     if (const toml::table* t = r.table(root, "table", false, file_start, "")) read_table(r, *t, out, r.at(*t));
     if (const toml::table* t = r.table(root, "response", false, file_start, "")) read_response(r, *t, out, r.at(*t));
 

@@ -30,7 +30,8 @@ using model_type = counterflux::sensor_model<double, max_elements>;
 struct axis_spec {
     double from = 0.0;
     double to = 0.0;
-    unsigned points = 0;
+    unsigned points = 0;  ///< 0: not given, the table verb chooses (table.max_error is then given)
+    source_place place;   ///< the axis's inline table
 };
 
 /// [table]: lookup-table axes, value type and the error bound to prove.
@@ -39,7 +40,17 @@ struct table_spec {
     axis_spec pressure;                        ///< Pa
     std::string values = "float32";            ///< "float32" or "q15"
     double max_error = 1.0e-3;                 ///< relative interpolation error bound
+    bool max_error_given = false;              ///< max_error was in the file (not the default)
+    source_place max_error_place;              ///< the max_error value, when given
     source_place place;                        ///< the [table] header
+};
+
+/// [zero]: the zero (baseline) current I0(T) = current exp(per_K (T - T_ref)).
+/// Without the section the zero current is 0 (the fit verb measures it per unit).
+struct zero_spec {
+    double current_A = 0.0;                    ///< at the reference temperature
+    double per_K = 0.0;                        ///< temperature coefficient b, 1/K
+    source_place place;                        ///< the [zero] header
 };
 
 /// [response]: optional parts of the step-response chain (SI).
@@ -66,6 +77,7 @@ struct sensor_file {
     source_place reference_place;              ///< the [reference] header
     source_place reference_temperature_place;  ///< the reference.temperature value
     source_place diffusivity_place;            ///< the diffusivity.method value (else the [diffusivity] header)
+    std::optional<zero_spec> zero;             ///< [zero], if present
     std::optional<table_spec> table;           ///< [table], if present
     std::optional<response_spec> response;     ///< [response], if present
 };

@@ -58,6 +58,24 @@ int run_design(const design_options& options, std::ostream& out);
 /// Declares the verb on app; output goes to out.
 verb add_design_verb(CLI::App& app, std::ostream& out);
 
+// ---- table -----------------------------------------------------------------
+
+/// Options of `counterflux table FILE --out DIR`.
+struct table_options {
+    std::string file;
+    std::string out;                    ///< directory for the four outputs
+    std::optional<std::string> values;  ///< "float32" or "q15"; default: table.values
+    std::optional<std::string> svg;     ///< also write an SVG plot here
+    bool json = false;
+};
+
+/// Builds, proves and writes the tables. Throws input_error / run_error, and
+/// check_failed (exit 3) when the proven error exceeds table.max_error.
+int run_table(const table_options& options, std::ostream& out);
+
+/// Declares the verb on app; output goes to out.
+verb add_table_verb(CLI::App& app, std::ostream& out);
+
 }  // namespace counterflux::tool
 
 #endif  // COUNTERFLUX_TOOLS_VERBS_HPP
