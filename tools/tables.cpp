@@ -351,6 +351,29 @@ std::size_t smallest_count(const sensor_file& f, bool along_temperature, double 
     return good;
 }
 
+// The grid met the bound: take each chosen axis down to the fewest points that
+// still meet it with the other axis as it is (bisection on the full proof).
+table_set shrink(const sensor_file& f, table_set best, bool choose_t, bool choose_p, const std::string& values) {
+    const auto& spec = *f.table;
+    for (const bool along_t : {true, false}) {
+        if (along_t ? !choose_t : !choose_p) continue;
+        std::size_t good = along_t ? best.temperature.count : best.pressure.count, bad = 1;
+        while (good - bad > 1) {
+            const std::size_t mid = (good + bad) / 2;
+            const grid_axis ta{spec.temperature.from, spec.temperature.to, along_t ? mid : best.temperature.count};
+            const grid_axis pa{spec.pressure.from, spec.pressure.to, along_t ? best.pressure.count : mid};
+            table_set t = build_tables(f, ta, pa, values);
+            if (t.proof.max_error <= spec.max_error) {
+                good = mid;
+                best = std::move(t);
+            } else {
+                bad = mid;
+            }
+        }
+    }
+    return best;
+}
+
 }  // namespace
 
 table_set choose_and_build(const sensor_file& f, const std::string& values) {
@@ -364,7 +387,8 @@ table_set choose_and_build(const sensor_file& f, const std::string& values) {
     for (;;) {
         table_set t = build_tables(f, {spec.temperature.from, spec.temperature.to, nt},
                                    {spec.pressure.from, spec.pressure.to, np}, values);
-        if (t.proof.max_error <= spec.max_error || (!choose_t && !choose_p)) return t;
+        if (!choose_t && !choose_p) return t;
+        if (t.proof.max_error <= spec.max_error) return shrink(f, std::move(t), choose_t, choose_p, values);
         // Grow, by about an eighth, the chosen axis whose own error is larger.
         const bool t_can = choose_t && nt < max_grid_points, p_can = choose_p && np < max_grid_points;
         const double et = t_can ? axis_error(f, true, nt, values) : 0.0;

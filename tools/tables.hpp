@@ -91,10 +91,12 @@ table_set build_tables(const sensor_file& file, const grid_axis& temperature, co
                        const std::string& values);
 
 /// The grid of file's [table]: the given point counts, or, where an axis has
-/// none, the smallest count (grown axis by axis from one-dimensional error
-/// estimates) whose full proof meets max_error. The result holds the last
-/// tables built; when no grid up to max_grid_points per axis meets the bound,
-/// the largest tried is returned (its proof then exceeds the bound).
+/// none, a count chosen to meet max_error: first from one-dimensional error
+/// estimates (half the bound to each chosen axis), grown by about an eighth on
+/// the axis with the larger error until the full proof meets the bound, then
+/// each chosen axis bisected down to the fewest points that still meet it with
+/// the other axis as it is. When no grid up to max_grid_points per axis meets
+/// the bound, the largest tried is returned (its proof then exceeds it).
 table_set choose_and_build(const sensor_file& file, const std::string& values);
 
 /// Most nodes per axis choose_and_build tries.
