@@ -45,6 +45,9 @@ input_error::input_error(source_place place, std::string message)
 
 const char* input_error::what() const noexcept { return what_.c_str(); }
 
+check_failed::check_failed(const source_place& place, const std::string& message)
+    : std::runtime_error(format_diagnostic(diagnostic{place, message})), placed_(true) {}
+
 input_error flag_error(const std::string& flag, const std::string& message) {
     source_place place;
     place.subject = flag;
@@ -67,7 +70,14 @@ int report_exception(std::exception_ptr error, std::ostream& err) noexcept {
         }
         return static_cast<int>(exit_status::bad_input);
     } catch (const check_failed& e) {
-        general(e.what());
+        if (!e.placed()) {
+            general(e.what());
+        } else {
+            try {
+                err << e.what() << '\n';
+            } catch (...) {
+            }
+        }
         return static_cast<int>(exit_status::check_failed);
     } catch (const std::bad_alloc&) {
         general("out of memory");

@@ -67,9 +67,18 @@ private:
 input_error flag_error(const std::string& flag, const std::string& message);
 
 /// A check that failed (exit 3): corrupt record, error bound not met, ...
+/// Printed "counterflux: error: MESSAGE", or "FILE: error: MESSAGE" when made
+/// with a place.
 class check_failed : public std::runtime_error {
 public:
     using std::runtime_error::runtime_error;
+    /// A failed check about an input: what() is the formatted diagnostic.
+    check_failed(const source_place& place, const std::string& message);
+    /// True when what() is already a formatted diagnostic (made with a place).
+    bool placed() const noexcept { return placed_; }
+
+private:
+    bool placed_ = false;
 };
 
 /// Anything else that stops a run (exit 1): I/O failure, library failure.

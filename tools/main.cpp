@@ -75,6 +75,7 @@ int run(int argc, char** argv) {
         add_diffusivity_verb(app, std::cout),
         add_design_verb(app, std::cout),
         add_table_verb(app, std::cout),
+        add_inspect_verb(app, std::cout),
     };
 
     try {

@@ -76,6 +76,22 @@ int run_table(const table_options& options, std::ostream& out);
 /// Declares the verb on app; output goes to out.
 verb add_table_verb(CLI::App& app, std::ostream& out);
 
+// ---- inspect ---------------------------------------------------------------
+
+/// Options of `counterflux inspect FILE.bin`.
+struct inspect_options {
+    std::string file;
+    bool json = false;
+};
+
+/// Validates the calibration record in options.file and prints it. Throws
+/// input_error (unreadable, not a regular file, over 1 MiB) or check_failed
+/// (an invalid record; with --json the JSON with "valid": false is printed first).
+int run_inspect(const inspect_options& options, std::ostream& out);
+
+/// Declares the verb on app; output goes to out.
+verb add_inspect_verb(CLI::App& app, std::ostream& out);
+
 }  // namespace counterflux::tool
 
 #endif  // COUNTERFLUX_TOOLS_VERBS_HPP
