@@ -14,6 +14,8 @@
 #include <string>
 #include <vector>
 
+#include <unistd.h>
+
 #include <nlohmann/json.hpp>
 
 #include <counterflux/record.hpp>
@@ -40,10 +42,11 @@ std::string slurp(const fs::path& p) {
     return std::string(std::istreambuf_iterator<char>(in), std::istreambuf_iterator<char>());
 }
 
-// Runs the command with args, capturing standard output and standard error.
+// Runs the command with args, capturing standard output and standard error
+// (through a file named after this process: CTest runs the cases in parallel).
 full_run run_full(const std::vector<std::string>& args) {
     fs::create_directories(work);
-    const fs::path err = work / "stderr.txt";
+    const fs::path err = work / ("stderr-" + std::to_string(::getpid()) + ".txt");
     std::string line = shell_quote(command);
     for (const auto& a : args) line += " " + shell_quote(a);
     line += " 2>" + shell_quote(err.string());
@@ -54,7 +57,9 @@ full_run run_full(const std::vector<std::string>& args) {
     std::size_t n = 0;
     while ((n = std::fread(buffer.data(), 1, buffer.size(), pipe)) > 0) out.append(buffer.data(), n);
     const int raw = ::pclose(pipe);
-    return {WIFEXITED(raw) ? WEXITSTATUS(raw) : -1, out, slurp(err)};
+    full_run r{WIFEXITED(raw) ? WEXITSTATUS(raw) : -1, out, slurp(err)};
+    fs::remove(err);
+    return r;
 }
 
 void save(const fs::path& p, const std::vector<std::uint8_t>& bytes) {
