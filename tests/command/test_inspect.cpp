@@ -286,3 +286,37 @@ TEST_CASE("inspect: a missing file, a directory and an oversized file exit 2") {
     const full_run none = run_full({"inspect"});
     CHECK(none.status == 2);
 }
+
+TEST_CASE("inspect: the record `table` writes for the bundled example is valid and agrees with it") {
+    const fs::path out = work / "table_garage_co";
+    fs::remove_all(out);
+    const full_run t = run_full({"table", COUNTERFLUX_SOURCE_DIR "/examples/garage_co.toml", "--out", out.string(),
+                                 "--json"});
+    REQUIRE(t.status == 0);
+    const nlohmann::json table = nlohmann::json::parse(t.out);
+    const fs::path bin = out / "garage_co.bin";
+    REQUIRE(fs::is_regular_file(bin));
+    const std::string raw = slurp(bin);
+    const std::vector<std::uint8_t> bytes(raw.begin(), raw.end());
+
+    const full_run r = run_full({"inspect", "--json", bin.string()});
+    REQUIRE(r.status == 0);
+    const nlohmann::json j = nlohmann::json::parse(r.out);
+    CHECK(j.at("valid") == true);
+    CHECK(j.at("symbol") == "garage_co");
+    CHECK(j.at("crc32").get<std::uint32_t>() == trailer(bytes));
+    CHECK(j.at("size_bytes") == bytes.size());
+    CHECK(j.at("linear") == table.at("linear"));
+    // The axes as the table verb reports them (in double) and as the record
+    // stores them (binary32): the same counts, nodes equal to float precision.
+    REQUIRE(j.at("axes").size() == table.at("axes").size());
+    for (std::size_t k = 0; k < j.at("axes").size(); ++k) {
+        const nlohmann::json& a = j.at("axes")[k];
+        const nlohmann::json& b = table.at("axes")[k];
+        CHECK(a.at("name") == b.at("name"));
+        CHECK(a.at("count") == b.at("count"));
+        CHECK(a.at("unit") == b.at("unit"));
+        const double from = b.at("from").get<double>();
+        CHECK(a.at("from").get<double>() == double(static_cast<float>(from)));
+    }
+}

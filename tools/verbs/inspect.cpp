@@ -6,6 +6,7 @@
 #include <cerrno>
 #include <cstdint>
 #include <cstdio>
+#include <cstdlib>
 #include <cstring>
 #include <filesystem>
 #include <fstream>
@@ -209,14 +210,18 @@ nlohmann::json record_json(const std::string& file, const counterflux::record_vi
     return j;
 }
 
+// x as the decimal of 7 significant digits nearest to it, for the text report:
+// a float axis of 273.15 K (stored as 273.149994) prints as 0 C, not -6.1e-06 C.
+double shown(float x) { return std::strtod(format_number(static_cast<double>(x), 7).c_str(), nullptr); }
+
 std::string reading_text(const counterflux::record_view& v, double x) {
     return partial_pressure(v) ? format_number(x, 6) + " Pa" : format_concentration(x, 6);
 }
 
 std::string axis_text(const axis_info& a) {
-    const double from = static_cast<double>(a.axis.from);
-    const double step = static_cast<double>(a.axis.step);
-    const double to = last_node(a.axis);
+    const double from = shown(a.axis.from);
+    const double step = shown(a.axis.step);
+    const double to = shown(static_cast<float>(last_node(a.axis)));
     const std::string points = std::to_string(a.axis.count) + " points";
     if (std::string(a.unit) == "K")
         return points + ", " + format_temperature(from) + " .. " + format_temperature(to) + ", step " +
@@ -241,10 +246,10 @@ std::string record_text(const std::string& file, const counterflux::record_view&
     line("unit", *v.unit_id() != '\0' ? std::string(v.unit_id()) : std::string("none (a design table)"));
     line("values", q15 ? "q15 (int16, value = offset + scale * q / 32768)" : "float32");
     line("report", partial_pressure(v) ? "partial pressure (Pa)" : "mole fraction (mol/mol)");
-    line("reference", format_temperature(static_cast<double>(v.reference_temperature_K())) + ", " +
-                          format_pressure(static_cast<double>(v.reference_pressure_Pa())));
-    line("gain", format_number(static_cast<double>(v.gain()), 6) + (partial_pressure(v) ? " Pa/A" : " (mol/mol)/A"));
-    line("full scale", reading_text(v, static_cast<double>(v.full_scale())));
+    line("reference", format_temperature(shown(v.reference_temperature_K())) + ", " +
+                          format_pressure(shown(v.reference_pressure_Pa())));
+    line("gain", format_number(shown(v.gain()), 6) + (partial_pressure(v) ? " Pa/A" : " (mol/mol)/A"));
+    line("full scale", reading_text(v, shown(v.full_scale())));
     line("source hash", hex32(v.source_hash()));
     line("law", v.linear() ? "linear (no curvature or shape table)" : "curved: reading = w h(gamma w)");
     t += "  axes\n";
