@@ -15,7 +15,8 @@ counterflux::compensation_ref<float> garage_f32_view();
 float garage_f32_reading_cxx(float signal_A, float temperature_K, float pressure_Pa, unsigned* status);
 std::size_t garage_f32_temperature_count();
 std::size_t garage_f32_pressure_count();
-const float* garage_f32_correction();
+const float* garage_f32_gain_table();  ///< GAIN * c(T, P), row-major
+float garage_f32_gain();                ///< GAIN, reading units per A at the reference
 
 }  // namespace generated_test
 

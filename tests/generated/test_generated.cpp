@@ -131,9 +131,10 @@ TEST_CASE("the header's data drive the library's table types to the same reading
     }
 }
 
-TEST_CASE("span at the nodes is the inverse of the stored correction, and 1 near the reference") {
+TEST_CASE("span at the nodes is GAIN over the stored gain table, and 1 near the reference") {
     const std::size_t nt = generated_test::garage_f32_temperature_count(), np = generated_test::garage_f32_pressure_count();
-    const float* c = generated_test::garage_f32_correction();
+    const float* k = generated_test::garage_f32_gain_table();
+    const double gain = static_cast<double>(generated_test::garage_f32_gain());
     const auto& a = *garage().table;
     for (std::size_t i = 0; i < nt; ++i)
         for (std::size_t j = 0; j < np; ++j) {
@@ -144,7 +145,7 @@ TEST_CASE("span at the nodes is the inverse of the stored correction, and 1 near
             unsigned s = 0;
             const float span = f32_span(static_cast<float>(t), static_cast<float>(p), &s);
             CHECK(s == 0u);
-            CHECK(std::fabs(static_cast<double>(span) * static_cast<double>(c[i * np + j]) - 1.0) < 1.0e-5);
+            CHECK(std::fabs(static_cast<double>(span) * static_cast<double>(k[i * np + j]) / gain - 1.0) < 1.0e-5);
             // and the model's span factor there (signal.hpp, double)
             const double model = counterflux::span_factor(garage().model, t, p).value;
             CHECK(std::fabs(static_cast<double>(span) / model - 1.0) < 1.0e-5);

@@ -113,7 +113,13 @@ std::string c_header_text(const table_set& t, const provenance& p) {
       << " * NOT_FINITE flag. Assumes IEEE-754 float without -ffast-math"
       << (q15 ? " and an\n * arithmetic right shift of negative integers (GCC, Clang, Arm compilers)" : "") << ".\n"
       << " */\n";
-    o << "#ifndef " << S << "_H\n#define " << S << "_H\n\n#include <stdint.h>\n\n";
+    o << "#ifndef " << S << "_H\n#define " << S << "_H\n\n#include <stdint.h>\n\n"
+      << "/* Branch hint: inputs inside the table are the common case. */\n"
+      << "#if defined(__GNUC__) || defined(__clang__)\n"
+      << "#define " << S << "_LIKELY_(x) __builtin_expect(!!(x), 1)\n"
+      << "#else\n"
+      << "#define " << S << "_LIKELY_(x) (x)\n"
+      << "#endif\n\n";
 
     o << "/* Status flags (the bits of the counterflux library's status). */\n"
       << "#define " << S << "_STATUS_NOT_FINITE        0x0002u /* an input was NaN or infinite */\n"
@@ -129,20 +135,25 @@ std::string c_header_text(const table_set& t, const provenance& p) {
       << "#define " << S << "_TEMPERATURE_FROM_K " << flt(t.temperature.from) << "\n"
       << "#define " << S << "_TEMPERATURE_TO_K " << flt(t.temperature.to) << "\n"
       << "#define " << S << "_TEMPERATURE_INV_STEP " << flt(1.0 / t.temperature.step()) << "\n"
+      << "#define " << S << "_TEMPERATURE_BEFORE_K " << flt(t.temperature.from - t.temperature.step())
+      << " /* FROM - STEP: the fast path's biased origin */\n"
       << "#define " << S << "_PRESSURE_COUNT " << np << "\n"
       << "#define " << S << "_PRESSURE_FROM_PA " << flt(t.pressure.from) << "\n"
       << "#define " << S << "_PRESSURE_TO_PA " << flt(t.pressure.to) << "\n"
       << "#define " << S << "_PRESSURE_INV_STEP " << flt(1.0 / t.pressure.step()) << "\n"
+      << "#define " << S << "_PRESSURE_BEFORE_PA " << flt(t.pressure.from - t.pressure.step()) << "\n"
       << "#define " << S << "_GAIN " << flt(t.gain) << " /* " << (t.partial_pressure ? "Pa" : "mol/mol")
       << " per A at the reference */\n"
       << "#define " << S << "_FULL_SCALE " << flt(t.full_scale) << "\n"
+      << "#define " << S << "_SIGNAL_LIMIT_A 1.0f /* |signal| at or beyond 1 A is clamped and flagged */\n"
       << "#define " << S << "_PROVEN_ERROR " << flt(t.proof.max_error)
       << " /* relative, of reading or of 10 % of full scale below that */\n";
     if (!t.linear)
         o << "#define " << S << "_SHAPE_COUNT " << t.shape_axis.count << "\n"
           << "#define " << S << "_SHAPE_FROM " << flt(t.shape_axis.from) << "\n"
           << "#define " << S << "_SHAPE_TO " << flt(t.shape_axis.to) << "\n"
-          << "#define " << S << "_SHAPE_INV_STEP " << flt(1.0 / t.shape_axis.step()) << "\n";
+          << "#define " << S << "_SHAPE_INV_STEP " << flt(1.0 / t.shape_axis.step()) << "\n"
+          << "#define " << S << "_SHAPE_BEFORE " << flt(t.shape_axis.from - t.shape_axis.step()) << "\n";
     o << "\n";
 
     const std::string dims2 = S + "_TEMPERATURE_COUNT * " + S + "_PRESSURE_COUNT";
@@ -158,8 +169,21 @@ std::string c_header_text(const table_set& t, const provenance& p) {
             array(o, type, name, st.f32, row, dims, what);
         }
     };
-    emit_table(t.correction, s + "_correction", np, dims2,
-               "c(T, P) = 1 / s(T, P), row-major: [it * PRESSURE_COUNT + ip]");
+    // The span correction with the gain folded in, k = GAIN * c (one multiply
+    // less per reading): float32 values of k, or the q15 values of c (those of
+    // the record) with GAIN folded into their scale and offset.
+    {
+        stored_table k = t.correction;
+        if (q15) {
+            k.scale = static_cast<float>(static_cast<double>(k.scale) * t.gain);
+            k.offset = static_cast<float>(static_cast<double>(k.offset) * t.gain);
+        } else {
+            for (std::size_t i = 0; i < k.f32.size(); ++i) k.f32[i] = static_cast<float>(k.exact[i] * t.gain);
+        }
+        emit_table(k, s + "_gain_table", np, dims2,
+                   "k(T, P) = GAIN * c(T, P), c = 1 / s(T, P): reading units per A; row-major [it * PRESSURE_COUNT "
+                   "+ ip]");
+    }
     emit_table(t.zero, s + "_zero_current", std::min<std::size_t>(nt, 8), dims1, "I0(T), A");
     if (!t.linear) {
         emit_table(t.curvature, s + "_curvature", np, dims2,
@@ -168,24 +192,32 @@ std::string c_header_text(const table_set& t, const provenance& p) {
     }
 
     // ---- helpers ----------------------------------------------------------
-    o << "/* Position of x on a uniform axis in steps, clamped to [0, last]. */\n"
-      << "static inline float " << s << "_position_(float x, float from, float inv_step, float last,\n"
-      << "                                     unsigned below, unsigned above, unsigned *flags)\n"
+    o << "/* Index (0 .. count - 2) and fraction (0 .. 1) of x on a uniform axis from\n"
+      << " * `from` to `to`, for the cases the inline fast path leaves: x at or beyond\n"
+      << " * an edge, or not finite. t = (x - (from - step)) / step is the position in\n"
+      << " * steps plus one. Beyond an edge the edge node is used and flagged. */\n"
+      << "static inline intptr_t " << s << "_edge_(float x, float t, float from, float to, intptr_t count,\n"
+      << "                                 unsigned below, unsigned above, unsigned *flags, float *fraction)\n"
       << "{\n"
-      << "    float t = (x - from) * inv_step;\n"
-      << "    if (t >= 0.0f) {\n"
-      << "        if (t > last) {\n"
-      << "            *flags |= above | " << S << "_STATUS_ABOVE_RANGE | (x - x == 0.0f ? 0u : " << S
-      << "_STATUS_NOT_FINITE);\n"
-      << "            t = last;\n"
-      << "        }\n"
-      << "    } else {\n"
-      << "        *flags |= x == x ? (below | " << S << "_STATUS_BELOW_RANGE | (x - x == 0.0f ? 0u : " << S
-      << "_STATUS_NOT_FINITE))\n"
-      << "                         : " << S << "_STATUS_NOT_FINITE;\n"
-      << "        t = 0.0f;\n"
+      << "    if (x >= from && x <= to) {\n"
+      << "        intptr_t i;\n"
+      << "        if (t < 1.0f) { *fraction = 0.0f; return 0; }\n"
+      << "        if (t >= (float)count) { *fraction = 1.0f; return count - 2; }\n"
+      << "        i = (intptr_t)t;\n"
+      << "        *fraction = t - (float)i;\n"
+      << "        return i - 1;\n"
       << "    }\n"
-      << "    return t;\n"
+      << "    if (x > to) {\n"
+      << "        *flags |= above | " << S << "_STATUS_ABOVE_RANGE | (x - x == 0.0f ? 0u : " << S
+      << "_STATUS_NOT_FINITE);\n"
+      << "        *fraction = 1.0f;\n"
+      << "        return count - 2;\n"
+      << "    }\n"
+      << "    *flags |= x == x ? (below | " << S << "_STATUS_BELOW_RANGE | (x - x == 0.0f ? 0u : " << S
+      << "_STATUS_NOT_FINITE))\n"
+      << "                     : " << S << "_STATUS_NOT_FINITE;\n"
+      << "    *fraction = 0.0f;\n"
+      << "    return 0;\n"
       << "}\n\n";
     if (q15) {
         o << "/* Linear interpolation of q15 values with a Q15 fraction f (0 .. 32768). */\n"
@@ -200,23 +232,72 @@ std::string c_header_text(const table_set& t, const provenance& p) {
           << "}\n\n";
     }
 
-    const auto locate = [&](const char* indent) {
-        o << indent << "const float tt = " << s << "_position_(temperature_K, " << S << "_TEMPERATURE_FROM_K, " << S
-          << "_TEMPERATURE_INV_STEP,\n"
-          << indent << "    (float)(" << S << "_TEMPERATURE_COUNT - 1), " << S << "_STATUS_TEMPERATURE_BELOW, " << S
-          << "_STATUS_TEMPERATURE_ABOVE, &flags);\n"
-          << indent << "int it = (int)tt;\n"
-          << indent << "if (it > " << S << "_TEMPERATURE_COUNT - 2) it = " << S << "_TEMPERATURE_COUNT - 2;\n"
-          << indent << "const float ft = tt - (float)it;\n";
+    // Position on the temperature axis (and the pressure axis): the fast path
+    // for inputs strictly inside, else the edge function.
+    const auto axis_t = [&](const char* indent) {
+        o << indent << "const float tt = (temperature_K - " << S << "_TEMPERATURE_BEFORE_K) * " << S
+          << "_TEMPERATURE_INV_STEP;\n";
     };
-    const auto locate_p = [&](const char* indent) {
-        o << indent << "const float tp = " << s << "_position_(pressure_Pa, " << S << "_PRESSURE_FROM_PA, " << S
-          << "_PRESSURE_INV_STEP,\n"
-          << indent << "    (float)(" << S << "_PRESSURE_COUNT - 1), " << S << "_STATUS_PRESSURE_BELOW, " << S
-          << "_STATUS_PRESSURE_ABOVE, &flags);\n"
-          << indent << "int ip = (int)tp;\n"
-          << indent << "if (ip > " << S << "_PRESSURE_COUNT - 2) ip = " << S << "_PRESSURE_COUNT - 2;\n"
-          << indent << "const float fp = tp - (float)ip;\n";
+    const auto axis_p = [&](const char* indent) {
+        o << indent << "const float tp = (pressure_Pa - " << S << "_PRESSURE_BEFORE_PA) * " << S
+          << "_PRESSURE_INV_STEP;\n";
+    };
+    const auto fast_t = [&](const char* indent) {
+        o << indent << "it = (intptr_t)tt;\n" << indent << "ft = tt - (float)it;\n" << indent << "it -= 1;\n";
+    };
+    const auto fast_p = [&](const char* indent) {
+        o << indent << "ip = (intptr_t)tp;\n" << indent << "fp = tp - (float)ip;\n" << indent << "ip -= 1;\n";
+    };
+    const auto slow_t = [&](const char* indent) {
+        o << indent << "it = " << s << "_edge_(temperature_K, tt, " << S << "_TEMPERATURE_FROM_K, " << S
+          << "_TEMPERATURE_TO_K, " << S << "_TEMPERATURE_COUNT,\n"
+          << indent << "    " << S << "_STATUS_TEMPERATURE_BELOW, " << S
+          << "_STATUS_TEMPERATURE_ABOVE, &flags, &ft);\n";
+    };
+    const auto slow_p = [&](const char* indent) {
+        o << indent << "ip = " << s << "_edge_(pressure_Pa, tp, " << S << "_PRESSURE_FROM_PA, " << S
+          << "_PRESSURE_TO_PA, " << S << "_PRESSURE_COUNT,\n"
+          << indent << "    " << S << "_STATUS_PRESSURE_BELOW, " << S << "_STATUS_PRESSURE_ABOVE, &flags, &fp);\n";
+    };
+    const auto locate = [&](const char*) {
+        axis_t("    ");
+        o << "    intptr_t it;\n    float ft;\n"
+          << "    if (" << S << "_LIKELY_(tt >= 1.0f && tt < (float)" << S << "_TEMPERATURE_COUNT)) {\n";
+        fast_t("        ");
+        o << "    } else {\n";
+        slow_t("        ");
+        o << "    }\n";
+    };
+    // with_signal: the reading's fast path also requires |signal| < SIGNAL_LIMIT_A
+    // (NaN fails it); outside, the signal is clamped and flagged.
+    const auto locate_both = [&](bool with_signal) {
+        axis_t("    ");
+        axis_p("    ");
+        o << "    intptr_t it, ip;\n    float ft, fp;\n"
+          << "    const float lowest = tt < tp ? tt : tp; /* NaN in tt or tp fails a test below */\n"
+          << "    if (" << S << "_LIKELY_(lowest >= 1.0f && tt < (float)" << S << "_TEMPERATURE_COUNT && tp < (float)"
+          << S << "_PRESSURE_COUNT";
+        if (with_signal)
+          o << " &&\n        signal_A * signal_A < " << S << "_SIGNAL_LIMIT_A * " << S << "_SIGNAL_LIMIT_A";
+        o << ")) {\n";
+        fast_t("        ");
+        fast_p("        ");
+        o << "    } else {\n";
+        slow_t("        ");
+        slow_p("        ");
+        if (with_signal)
+            o << "        if (!(signal_A < " << S << "_SIGNAL_LIMIT_A && signal_A > -" << S << "_SIGNAL_LIMIT_A)) {\n"
+              << "            if (signal_A - signal_A == 0.0f) {\n"
+              << "                flags |= signal_A > 0.0f ? " << S << "_STATUS_ABOVE_RANGE : " << S
+              << "_STATUS_BELOW_RANGE;\n"
+              << "                signal_A = signal_A > 0.0f ? " << S << "_SIGNAL_LIMIT_A : -" << S
+              << "_SIGNAL_LIMIT_A;\n"
+              << "            } else { /* read as no signal at all */\n"
+              << "                flags |= " << S << "_STATUS_NOT_FINITE;\n"
+              << "                signal_A = 0.0f;\n"
+              << "            }\n"
+              << "        }\n";
+        o << "    }\n";
     };
     // Bilinear interpolation of table `name` at (it, ft, ip, fp) into `out`.
     const auto bilinear = [&](const std::string& name, const std::string& out) {
@@ -255,12 +336,11 @@ std::string c_header_text(const table_set& t, const provenance& p) {
       << "static inline float " << s << "_span(float temperature_K, float pressure_Pa, unsigned *status)\n"
       << "{\n"
       << "    unsigned flags = 0u;\n";
-    locate("    ");
-    locate_p("    ");
+    locate_both(false);
     o << "    float c;\n";
-    bilinear(s + "_correction", "c");
+    bilinear(s + "_gain_table", "c");
     o << "    if (status) *status = flags;\n"
-      << "    return c > 1.0e-30f ? 1.0f / c : 1.0e30f;\n"
+      << "    return c > " << flt(t.gain) << " * 1.0e-30f ? " << S << "_GAIN / c : 1.0e30f;\n"
       << "}\n\n";
 
     // ---- zero ---------------------------------------------------------------
@@ -282,32 +362,28 @@ std::string c_header_text(const table_set& t, const provenance& p) {
       << "                                   unsigned *status)\n"
       << "{\n"
       << "    unsigned flags = 0u;\n";
-    locate("    ");
-    locate_p("    ");
+    locate_both(true);
     o << "    float c, z, w;\n";
-    bilinear(s + "_correction", "c");
+    bilinear(s + "_gain_table", "c");
     linear1(s + "_zero_current", "it", "ft", "z");
-    o << "    w = (signal_A - z) * (" << S << "_GAIN * c);\n"
-      << "    if (!(w - w == 0.0f)) { /* non-finite signal, or a finite one beyond float */\n"
-      << "        if (signal_A - signal_A == 0.0f) {\n"
-      << "            flags |= signal_A > z ? " << S << "_STATUS_ABOVE_RANGE : " << S << "_STATUS_BELOW_RANGE;\n"
-      << "            w = signal_A > z ? 3.0e38f : -3.0e38f;\n"
-      << "        } else {\n"
-      << "            flags |= " << S << "_STATUS_NOT_FINITE;\n"
-      << "            w = 0.0f;\n"
-      << "        }\n"
-      << "    }\n";
+    o << "    w = (signal_A - z) * c;\n";
     if (!t.linear) {
         o << "    {\n"
           << "        float g, h;\n";
         bilinear(s + "_curvature", "g");
-        o << "        const float tz = " << s << "_position_(g * w, " << S << "_SHAPE_FROM, " << S
-          << "_SHAPE_INV_STEP,\n"
-          << "            (float)(" << S << "_SHAPE_COUNT - 1), 0u, 0u, &flags);\n"
-          << "        int iz = (int)tz;\n"
-          << "        if (iz > " << S << "_SHAPE_COUNT - 2) iz = " << S << "_SHAPE_COUNT - 2;\n"
-          << "        {\n"
-          << "            const float fz = tz - (float)iz;\n";
+        o << "        {\n"
+          << "            const float gz = g * w;\n"
+          << "            const float tz = (gz - " << S << "_SHAPE_BEFORE) * " << S << "_SHAPE_INV_STEP;\n"
+          << "            intptr_t iz;\n"
+          << "            float fz;\n"
+          << "            if (" << S << "_LIKELY_(tz >= 1.0f && tz < (float)" << S << "_SHAPE_COUNT)) {\n"
+          << "                iz = (intptr_t)tz;\n"
+          << "                fz = tz - (float)iz;\n"
+          << "                iz -= 1;\n"
+          << "            } else {\n"
+          << "                iz = " << s << "_edge_(gz, tz, " << S << "_SHAPE_FROM, " << S << "_SHAPE_TO, " << S
+          << "_SHAPE_COUNT, 0u, 0u, &flags, &fz);\n"
+          << "            }\n";
         linear1(s + "_shape", "iz", "fz", "h");
         o << "        }\n"
           << "        w *= h;\n"
@@ -388,7 +464,7 @@ std::string c_header_text(const table_set& t, const provenance& p) {
           << "        " << S << "_FIXED_P_INV_STEP_Q32, " << S << "_PRESSURE_COUNT, " << S
           << "_STATUS_PRESSURE_BELOW,\n"
           << "        " << S << "_STATUS_PRESSURE_ABOVE, &flags, &fp);\n"
-          << "    const int16_t *v = " << s << "_correction + it * " << S << "_PRESSURE_COUNT + ip;\n"
+          << "    const int16_t *v = " << s << "_gain_table + it * " << S << "_PRESSURE_COUNT + ip;\n"
           << "    int64_t k, zero, r;\n"
           << "    a = " << s << "_lerp_q15_(v[0], v[1], fp);\n"
           << "    b = " << s << "_lerp_q15_(v[" << S << "_PRESSURE_COUNT], v[" << S << "_PRESSURE_COUNT + 1], fp);\n"
