@@ -5,7 +5,7 @@
  * Reset: enable the FPU (Cortex-M4F: CPACR CP10/CP11 full access, Armv7-M
  * Architecture Reference Manual B3.2.20), copy .data from flash, zero .bss, open the
  * semihosting standard streams when newlib's stdio is used, run the C++ constructors
- * (__libc_init_array), then exit(main()). A fault ends the run with status 70 and
+ * (__libc_init_array), then exit(main()) (without stdio: cf_mcu_exit(main())). A fault ends the run with status 70 and
  * says which fault and where, instead of hanging. */
 #include <stdint.h>
 #include <stdlib.h>
@@ -44,7 +44,14 @@ void cf_reset_handler(void) {
     __libc_init_array();
     static char name[] = "counterflux_mcu";
     static char* argv[] = {name, 0};
+#if defined(COUNTERFLUX_MCU_STDIO)
+    /* newlib's exit flushes stdio and reaches the host through rdimon's _exit. */
     exit(main(1, argv));
+#else
+    /* No stdio to flush; rdimon's _exit passes the status on only once its
+     * semihosting handles are open, so report it directly. */
+    cf_mcu_exit(main(1, argv));
+#endif
 }
 
 /* Called with the exception frame (r0-r3, r12, lr, pc, xpsr) the core pushed. */
