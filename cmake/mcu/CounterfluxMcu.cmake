@@ -41,14 +41,16 @@ set(COUNTERFLUX_HEAP_SYMBOLS
     _Znwj _Znaj _ZnwjRKSt9nothrow_t _ZnajRKSt9nothrow_t
     _ZdlPv _ZdaPv _ZdlPvj _ZdaPvj _ZdlPvRKSt9nothrow_t _ZdaPvRKSt9nothrow_t)
 
-add_library(counterflux_mcu_startup OBJECT
-  "${COUNTERFLUX_MCU_DIR}/startup.c" "${COUNTERFLUX_MCU_DIR}/semihosting.c")
-target_compile_options(counterflux_mcu_startup PRIVATE -Os -Wall -Wextra -Werror -std=c99)
-add_library(counterflux_mcu_startup_stdio OBJECT "${COUNTERFLUX_MCU_DIR}/startup.c")
-target_compile_options(counterflux_mcu_startup_stdio PRIVATE -Os -Wall -Wextra -Werror -std=c99)
-target_compile_definitions(counterflux_mcu_startup_stdio PRIVATE COUNTERFLUX_MCU_STDIO)
-add_library(counterflux_mcu_semihosting OBJECT "${COUNTERFLUX_MCU_DIR}/semihosting.c")
-target_compile_options(counterflux_mcu_semihosting PRIVATE -Os -Wall -Wextra -Werror -std=c99)
+if(NOT TARGET counterflux_mcu_startup)
+  add_library(counterflux_mcu_startup OBJECT
+    "${COUNTERFLUX_MCU_DIR}/startup.c" "${COUNTERFLUX_MCU_DIR}/semihosting.c")
+  target_compile_options(counterflux_mcu_startup PRIVATE -Os -Wall -Wextra -Werror -std=c99)
+  add_library(counterflux_mcu_startup_stdio OBJECT "${COUNTERFLUX_MCU_DIR}/startup.c")
+  target_compile_options(counterflux_mcu_startup_stdio PRIVATE -Os -Wall -Wextra -Werror -std=c99)
+  target_compile_definitions(counterflux_mcu_startup_stdio PRIVATE COUNTERFLUX_MCU_STDIO)
+  add_library(counterflux_mcu_semihosting OBJECT "${COUNTERFLUX_MCU_DIR}/semihosting.c")
+  target_compile_options(counterflux_mcu_semihosting PRIVATE -Os -Wall -Wextra -Werror -std=c99)
+endif()
 
 function(counterflux_mcu_image target)
   cmake_parse_arguments(PARSE_ARGV 1 ARG "STDIO;NO_HEAP" "" "")
