@@ -43,9 +43,9 @@ constexpr cf::compensation<float, nt, np> make_tables() noexcept {
 
 }  // namespace
 
-/// The library's compensation tables (flash: constant-initialised, no constructor).
-extern const cf::compensation<float, nt, np> counterflux_example_tables;
-const cf::compensation<float, nt, np> counterflux_example_tables = make_tables();
+/// The library's compensation tables and their view (flash: constant-initialised).
+constexpr cf::compensation<float, nt, np> counterflux_example_tables = make_tables();
+constexpr cf::compensation_ref<float> counterflux_example_ref = counterflux_example_tables.ref();
 
 struct reading_call {
     float signal_A, temperature_K, pressure_Pa;
@@ -56,7 +56,7 @@ struct reading_call {
 /// The library reading path: zero, span correction, law; mol/mol.
 extern "C" __attribute__((noinline)) void counterflux_example_library_reading(void* context) {
     auto* r = static_cast<reading_call*>(context);
-    const auto y = cf::reading(counterflux_example_tables.ref(), r->signal_A, r->temperature_K, r->pressure_Pa);
+    const auto y = cf::reading(counterflux_example_ref, r->signal_A, r->temperature_K, r->pressure_Pa);
     r->value = y.value;
     r->code = static_cast<unsigned>(y.code);
 }
