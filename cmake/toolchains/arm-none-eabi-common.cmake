@@ -24,8 +24,10 @@ set(_cf_common_flags "${COUNTERFLUX_ARM_FLAGS} -ffunction-sections -fdata-sectio
 set(CMAKE_C_FLAGS_INIT   "${_cf_common_flags}")
 set(CMAKE_CXX_FLAGS_INIT "${_cf_common_flags} -fno-exceptions -fno-rtti -fno-threadsafe-statics")
 set(CMAKE_ASM_FLAGS_INIT "${COUNTERFLUX_ARM_FLAGS}")
+# newlib-nano; the start-up code, linker script and system calls (semihosting) of
+# counterflux's own images come from cmake/mcu/CounterfluxMcu.cmake.
 set(CMAKE_EXE_LINKER_FLAGS_INIT
-    "${COUNTERFLUX_ARM_FLAGS} --specs=nano.specs --specs=nosys.specs -Wl,--gc-sections")
+    "${COUNTERFLUX_ARM_FLAGS} --specs=nano.specs -Wl,--gc-sections")
 
 # Search the toolchain's sysroot for libraries and headers, the host for programs.
 set(CMAKE_FIND_ROOT_PATH_MODE_PROGRAM NEVER)
