@@ -154,18 +154,30 @@ def main():
     tables = size_of(m4, "counterflux_example_tables")
     float_header = sum(s for n, k, s in m4["syms"] if n.startswith("garage_co_") and k in "rRdD")
     q15_header = sum(s for n, k, s in m0["syms"] if n.startswith("garage_co_") and k in "rRdD")
+    header_text = size_of(m4, "counterflux_example_table_reading")
+    header_stack = m4["stacks"].get("garage_co_reading")
+    # The goals hold for the firmware reading path, the generated header (its
+    # reading wrapped in counterflux_example_table_reading; data static const),
+    # and are also reported for the library's C++ reading() over compensation.hpp.
     goals = [
-        ("Reading path (`counterflux::reading`: 2-D span, 1-D zero, law) .text on the M4F, "
-         "without table data", f"{path_text} B", "<= 1024 B", path_text <= 1024),
-        ("Stack of `counterflux::reading` on the M4F (measured)",
-         f"{path_stack} B" if path_stack is not None else "not measured", "<= 64 B",
-         path_stack is not None and path_stack <= 64),
-        ("15 x 9 float span-correction table + 15-point zero table (`counterflux_example_tables`: "
-         "data, axes and gain) .rodata", f"{tables} B", "<= 620 B", 0 < tables <= 620),
-        ("q15 table of the generated header against its float32 table (same grid)",
+        ("Generated header: reading path (`garage_co_reading`: 2-D span, 1-D zero, law) .text on the M4F, "
+         "without table data", f"{header_text} B", "<= 1024 B", 0 < header_text <= 1024),
+        ("Generated header: stack of `garage_co_reading` on the M4F (measured)",
+         f"{header_stack} B" if header_stack is not None else "not measured", "<= 64 B",
+         header_stack is not None and header_stack <= 64),
+        ("Generated header: float span-correction table + zero table .rodata (garage_co: 15 x 9 and 15)",
+         f"{float_header} B", "<= 620 B", 0 < float_header <= 620),
+        ("Generated header: q15 tables against the float32 tables (same grid)",
          f"{q15_header} B vs {float_header} B", "<= half", 0 < q15_header and 2 * q15_header <= float_header),
         ("M0+ q15 image links no software floating-point helper",
          ", ".join(m0["soft"]) or "none", "none", not m0["soft"]),
+        ("Library: `counterflux::reading` .text on the M4F, without table data",
+         f"{path_text} B", "<= 1024 B", path_text <= 1024),
+        ("Library: stack of `counterflux::reading` on the M4F (measured)",
+         f"{path_stack} B" if path_stack is not None else "not measured", "<= 64 B",
+         path_stack is not None and path_stack <= 64),
+        ("Library: `compensation<float, 15, 9>` (data, axes and gain) .rodata", f"{tables} B", "<= 620 B",
+         0 < tables <= 620),
     ]
     md += ["## Goals (issue 6)", "", "| goal | measured | limit | result |", "|---|---|---|:-:|"]
     md += [f"| {g} | {v} | {l} | {'pass' if ok else 'FAIL'} |" for g, v, l, ok in goals]
