@@ -47,8 +47,9 @@ nlohmann::json point(const proof_point& p, bool with_fraction) {
     return j;
 }
 
-nlohmann::json stored(const stored_table& t, std::size_t row) {
+nlohmann::json stored(const stored_table& t, std::size_t row, const char* unit) {
     nlohmann::json j;
+    j["unit"] = unit;
     j["values"] = row > 0 ? rows(t.f32, row) : nlohmann::json(std::vector<double>(t.f32.begin(), t.f32.end()));
     if (!t.q15.empty()) {
         j["q15"] = t.q15;
@@ -92,17 +93,16 @@ nlohmann::json json_document(const table_set& t, const provenance& p) {
     j["sensitivity_A_per_mol_per_mol"] = t.sensitivity_A;
     j["gain"] = t.gain;
     j["full_scale"] = t.full_scale;
-    j["zero_current_A"] = t.zero_current_A;
-    j["zero_temperature_coefficient_per_K"] = t.zero_per_K;
+    j["zero_model"] = {{"current_A", t.zero_current_A}, {"temperature_coefficient_per_K", t.zero_per_K}};
     j["axes"] = nlohmann::json::array({axis("temperature", t.temperature, "K"), axis("pressure", t.pressure, "Pa")});
     j["span"] = rows(t.span.exact, t.pressure.count);
-    j["span_correction"] = stored(t.correction, t.pressure.count);
-    j["zero"] = stored(t.zero, 0);
+    j["span_correction"] = stored(t.correction, t.pressure.count, "1");
+    j["zero_current"] = stored(t.zero, 0, "A");
     j["linear"] = t.linear;
     if (!t.linear) {
-        j["curvature"] = stored(t.curvature, t.pressure.count);
+        j["curvature"] = stored(t.curvature, t.pressure.count, t.partial_pressure ? "1/Pa" : "1");
         j["shape_axis"] = axis("z", t.shape_axis, "1");
-        j["shape"] = stored(t.shape, 0);
+        j["shape"] = stored(t.shape, 0, "1");
     }
     j["max_interpolation_error"] = t.proof.max_error;
     j["max_span_error"] = t.proof.span.error;
