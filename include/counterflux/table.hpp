@@ -277,7 +277,8 @@ constexpr T q15_decode(std::int16_t q, const q15_scale<T>& s) noexcept {
 
 /// An integer uniform axis: node i is origin + i * step (step >= 2); inv_step_q32 =
 /// round(2^32 / step) makes the cell a multiply and a shift. count 0 marks an
-/// invalid axis (every lookup returns out_of_domain).
+/// invalid axis (every lookup returns out_of_domain). The Q15 fraction is within
+/// 1/2 + step / 2^16 counts: keep step below 2^15 units (mK and Pa steps are).
 struct q15_axis {
     std::int32_t origin;         ///< first node, axis unit (mK, Pa, ...)
     std::int32_t step;           ///< node spacing, axis unit, >= 2
@@ -310,21 +311,25 @@ struct q15_position {
 namespace detail {
 
 /// The cell and Q15 fraction of x on a valid q15 axis, clamped with the given flags.
-/// Integer only: one 32 x 32 -> 64-bit multiply for the position.
+/// Integer only: one 32 x 32 -> 64-bit multiply estimates the cell, the exact
+/// remainder corrects it (so every node is hit exactly), and a 32-bit multiply by
+/// the Q31 inverse gives the fraction, within 1/2 + step / 2^16 Q15 counts.
 constexpr q15_position q15_locate(const q15_axis& a, std::int32_t x, status below_flag, status above_flag) noexcept {
     const std::size_t last_cell = a.count - 2u;
     const std::int32_t last = a.origin + a.step * static_cast<std::int32_t>(last_cell + 1u);  // fits: see make_q15_axis
     if (x <= a.origin) return {0u, 0, axis_flags(x < a.origin, false, false, below_flag, above_flag)};
     if (x >= last) return {last_cell, 32768, axis_flags(false, x > last, false, below_flag, above_flag)};
-    // 0 < d < step * (count - 1) <= 2^31: unsigned arithmetic, no overflow.
+    // 0 < d < step * (count - 1) < 2^31: unsigned arithmetic, no overflow.
     const std::uint32_t d = static_cast<std::uint32_t>(x) - static_cast<std::uint32_t>(a.origin);
-    const std::uint64_t p = static_cast<std::uint64_t>(d) * a.inv_step_q32;  // cells in Q32
-    std::size_t i = static_cast<std::size_t>(p >> 32);
-    const std::uint32_t frac32 = static_cast<std::uint32_t>(p);
-    // Round the Q32 fraction to Q15 (0 .. 32768) without overflowing 32 bits.
-    std::int32_t f = static_cast<std::int32_t>((frac32 >> 17) + ((frac32 >> 16) & 1u));
-    if (i > last_cell) { i = last_cell; f = 32768; }  // rounding of inv_step just past the last node
-    return {i, f, status::ok};
+    const std::uint32_t step = static_cast<std::uint32_t>(a.step);
+    // d / step + at most 1/4 (the rounding of inv_step_q32 times d < 2^31): floor is off by at most one.
+    std::uint32_t i = static_cast<std::uint32_t>((static_cast<std::uint64_t>(d) * a.inv_step_q32) >> 32);
+    std::uint32_t r = d - i * step;  // wraps above d when i is one too high
+    if (r > d) { --i; r += step; }
+    if (r >= step) { ++i; r -= step; }
+    // r < step: r * (2^31 / step) < 2^31 + step / 2, and the rounding term keeps it below 2^32.
+    const std::uint32_t f = (r * (a.inv_step_q32 >> 1) + (std::uint32_t(1) << 15)) >> 16;
+    return {static_cast<std::size_t>(i), static_cast<std::int32_t>(f > 32768u ? 32768u : f), status::ok};
 }
 
 /// round((32768 - f) q0 + f q1) / 32768) for f in 0 .. 32768: exact weights, the
