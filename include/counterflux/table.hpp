@@ -114,33 +114,80 @@ constexpr T bilinear(const T* values, std::size_t stride, const axis_position<T>
 
 }  // namespace detail
 
-/// The cell and fraction of x on axis a, clamped to the axis: below the first
-/// node (or NaN) index 0 / fraction 0, at or above the last node index count - 2 /
-/// fraction 1. below_flag or above_flag (with below_range / above_range) when x
-/// is outside [first node, last node]; not_finite for NaN or +-inf. Search-free,
-/// no division; the flags and clamps compile to selects.
+namespace detail {
+
+/// locate() for the inputs its fast path does not take: at or beyond an edge,
+/// or not finite. Clamps and flags; branch-free selects.
 template <class T>
-constexpr axis_position<T> locate(const uniform_axis<T>& a, T x, status below_flag, status above_flag) noexcept {
-    const std::size_t last_cell = a.count >= 2u ? a.count - 2u : std::size_t(0);
-    const T top = static_cast<T>(last_cell + 1u);
-    const T last = a.origin + top * a.step;
-    const bool is_nan = !(x == x);
-    const bool below = x < a.origin;
+constexpr axis_position<T> locate_edge(T x, T t, T top, T last, std::ptrdiff_t cells, status below_flag,
+                                       status above_flag, T origin) noexcept {
+    const bool below = x < origin;  // false for NaN
     const bool above = x > last;
-    const bool infinite = x == std::numeric_limits<T>::infinity() || x == -std::numeric_limits<T>::infinity();
-    T t = (x - a.origin) * a.inv_step;
+    // One test for NaN and +-inf: neither lies within [-max, max].
+    const bool not_finite_x = !(x >= -std::numeric_limits<T>::max() && x <= std::numeric_limits<T>::max());
     t = t > T(0) ? t : T(0);  // also maps NaN to 0
     t = t < top ? t : top;
-    // t >= 0 here, so the conversion (a truncation) is the floor.
-    std::size_t i = static_cast<std::size_t>(t);
-    i = i < last_cell ? i : last_cell;
-    T f = t - static_cast<T>(i);
-    f = f < T(1) ? f : T(1);
-    f = x >= last ? T(1) : f;  // the last node exactly, whatever t rounded to
-    return axis_position<T>{i, f, detail::axis_flags(below, above, is_nan || infinite, below_flag, above_flag)};
+    std::ptrdiff_t i = static_cast<std::ptrdiff_t>(t);  // t >= 0: the truncation is the floor
+    i = i < cells - 1 ? i : cells - 1;
+    T f = t - static_cast<T>(i);  // in [0, 1]
+    f = x >= last ? T(1) : f;     // the last node exactly, whatever t rounded to
+    return axis_position<T>{static_cast<std::size_t>(i), f,
+                            axis_flags(below, above, not_finite_x, below_flag, above_flag)};
+}
+
+}  // namespace detail
+
+namespace detail {
+
+/// locate() on an axis of `cells` cells (count - 1, at least 1), given apart from
+/// the axis so that fixed-size tables pass a constant.
+template <class T>
+constexpr axis_position<T> locate_cells(const uniform_axis<T>& a, std::ptrdiff_t cells, T x, status below_flag,
+                                        status above_flag) noexcept {
+    const T top = static_cast<T>(cells);
+    const T t = (x - a.origin) * a.inv_step;
+    // The fast path, for x strictly inside. x - origin >= 0 exactly when x >= origin,
+    // so t >= 0 is the lower edge test (NaN fails it). At the upper edge t carries
+    // the rounding of x - origin, of inv_step and of the last node (a few eps
+    // relative): t below top (1 - 8 eps) is surely below the last node, and the few
+    // inputs closer to it take the exact test on x in locate_edge.
+    if (t >= T(0) && t < top - top * (T(8) * std::numeric_limits<T>::epsilon())) {
+        const std::ptrdiff_t i = static_cast<std::ptrdiff_t>(t);  // floor, 0 .. cells - 1
+        return axis_position<T>{static_cast<std::size_t>(i), t - static_cast<T>(i), status::ok};
+    }
+    return locate_edge(x, t, top, a.origin + top * a.step, cells, below_flag, above_flag, a.origin);
+}
+
+/// The cells of a runtime-sized axis: count - 1, at least 1.
+template <class T>
+constexpr std::ptrdiff_t cells_of(const uniform_axis<T>& a) noexcept {
+    return a.count >= 2u ? static_cast<std::ptrdiff_t>(a.count) - 1 : 1;
+}
+
+}  // namespace detail
+
+/// The cell and fraction of x on an ascending axis a, clamped to the axis: below
+/// the first node (or NaN) index 0 / fraction 0, at or above the last node index
+/// count - 2 / fraction 1. below_flag or above_flag (with below_range /
+/// above_range) when x is outside [first node, last node]; not_finite for NaN or
+/// +-inf. Search-free and division-free; an input inside the axis takes one
+/// well-predicted branch past the clamps and flags. Signed index arithmetic:
+/// float <-> signed integer conversions are single instructions on x86-64 and
+/// Cortex-M4F, unsigned 64-bit ones are not.
+template <class T>
+constexpr axis_position<T> locate(const uniform_axis<T>& a, T x, status below_flag, status above_flag) noexcept {
+    return detail::locate_cells(a, detail::cells_of(a), x, below_flag, above_flag);
 }
 
 namespace detail {
+
+/// 1-D lookup on an axis of `cells` cells with the caller's axis flags (no checks).
+template <class T>
+constexpr result<T> interpolate_1d_cells(const uniform_axis<T>& a, std::ptrdiff_t cells, const T* values, T x,
+                                         status below_flag, status above_flag) noexcept {
+    const axis_position<T> p = locate_cells(a, cells, x, below_flag, above_flag);
+    return {lerp(values[p.index], values[p.index + 1u], p.fraction), p.code};
+}
 
 /// 1-D lookup with the caller's axis flags; out_of_domain and 0 when values is
 /// null or the axis has fewer than 2 nodes.
@@ -148,15 +195,24 @@ template <class T>
 constexpr result<T> interpolate_1d_flagged(const uniform_axis<T>& a, const T* values, T x, status below_flag,
                                            status above_flag) noexcept {
     if (values == nullptr || a.count < 2u) return {T(0), status::out_of_domain};
-    const axis_position<T> p = locate(a, x, below_flag, above_flag);
-    return {lerp(values[p.index], values[p.index + 1u], p.fraction), p.code};
+    return interpolate_1d_cells(a, cells_of(a), values, x, below_flag, above_flag);
+}
+
+/// 2-D lookup on axes of c0 and c1 cells, values[i0 * (c1 + 1) + i1] (no checks).
+template <class T>
+constexpr result<T> interpolate_2d_cells(const uniform_axis<T>& a0, std::ptrdiff_t c0, const uniform_axis<T>& a1,
+                                         std::ptrdiff_t c1, const T* values, T x0, T x1) noexcept {
+    const axis_position<T> p0 = locate_cells(a0, c0, x0, status::first_axis_below, status::first_axis_above);
+    const axis_position<T> p1 = locate_cells(a1, c1, x1, status::second_axis_below, status::second_axis_above);
+    return {bilinear(values, static_cast<std::size_t>(c1) + 1u, p0, p1), p0.code | p1.code};
 }
 
 }  // namespace detail
 
 /// Linear interpolation of values[0 .. a.count - 1] on axis a at x, in the unit
 /// of the values. Clamped at the edges with first_axis_below / first_axis_above
-/// (and below_range / above_range); not_finite for non-finite x.
+/// (and below_range / above_range); not_finite for non-finite x; out_of_domain and
+/// 0 for null data or an axis of fewer than 2 nodes.
 template <class T>
 constexpr result<T> interpolate_1d(const uniform_axis<T>& a, const T* values, T x) noexcept {
     return detail::interpolate_1d_flagged(a, values, x, status::first_axis_below, status::first_axis_above);
@@ -165,14 +221,12 @@ constexpr result<T> interpolate_1d(const uniform_axis<T>& a, const T* values, T 
 /// Bilinear interpolation of values[i0 * a1.count + i1] on axes a0 (first, e.g.
 /// temperature) and a1 (second, e.g. pressure) at (x0, x1), in the unit of the
 /// values. Clamped at every edge with that axis's flag; not_finite for
-/// non-finite input.
+/// non-finite input; out_of_domain and 0 for null data or a short axis.
 template <class T>
 constexpr result<T> interpolate_2d(const uniform_axis<T>& a0, const uniform_axis<T>& a1, const T* values, T x0,
                                    T x1) noexcept {
     if (values == nullptr || a0.count < 2u || a1.count < 2u) return {T(0), status::out_of_domain};
-    const axis_position<T> p0 = locate(a0, x0, status::first_axis_below, status::first_axis_above);
-    const axis_position<T> p1 = locate(a1, x1, status::second_axis_below, status::second_axis_above);
-    return {detail::bilinear(values, a1.count, p0, p1), p0.code | p1.code};
+    return detail::interpolate_2d_cells(a0, detail::cells_of(a0), a1, detail::cells_of(a1), values, x0, x1);
 }
 
 // ---------------------------------------------------------------------------
@@ -186,7 +240,11 @@ struct table_1d {
     std::array<T, N> values;  ///< value at each node
 
     /// The interpolated value at x (see interpolate_1d), unit of the values.
-    constexpr result<T> operator()(T x) const noexcept { return interpolate_1d(axis, values.data(), x); }
+    /// (The size N, not axis.count, bounds the reads.)
+    constexpr result<T> operator()(T x) const noexcept {
+        return detail::interpolate_1d_cells(axis, std::ptrdiff_t(N) - 1, values.data(), x, status::first_axis_below,
+                                            status::first_axis_above);
+    }
 };
 
 /// N0 x N1 values on two uniform axes, interpolated bilinearly; values[i0 * N1 + i1].
@@ -198,8 +256,10 @@ struct table_2d {
     std::array<T, N0 * N1> values;  ///< row-major: values[i0 * N1 + i1]
 
     /// The interpolated value at (x0, x1) (see interpolate_2d), unit of the values.
+    /// (The sizes N0, N1, not the axes' counts, bound the reads.)
     constexpr result<T> operator()(T x0, T x1) const noexcept {
-        return interpolate_2d(axis0, axis1, values.data(), x0, x1);
+        return detail::interpolate_2d_cells(axis0, std::ptrdiff_t(N0) - 1, axis1, std::ptrdiff_t(N1) - 1,
+                                            values.data(), x0, x1);
     }
 };
 

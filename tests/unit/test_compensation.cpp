@@ -482,6 +482,19 @@ TEST_CASE_TEMPLATE("compensation: out-of-range and non-finite inputs of every fu
             CHECK(cf::has(r.code, cf::status::not_finite));
         }
     }
+    // The fixed-size objects read exactly as their size-erased views, flags included.
+    for (const T t : {T(200), T(250), T(290.5), T(330), T(400), nan}) {
+        for (const T p : {T(50000), T(70000), T(95000), T(110000), T(200000), inf}) {
+            for (const T i : {T(-1), T(0), T(1e-4), T(1), nan, -inf}) {
+                const cf::result<T> a = cf::reading(lin, i, t, p), b = cf::reading(lin.ref(), i, t, p);
+                const cf::result<T> c = cf::reading(cur, i, t, p), d = cf::reading(cur.ref(), i, t, p);
+                CHECK(a.value == b.value);
+                CHECK(a.code == b.code);
+                CHECK(c.value == d.value);
+                CHECK(c.code == d.code);
+            }
+        }
+    }
     // A non-finite signal reads 0 (the zero current is subtracted from itself).
     CHECK(cf::reading(lin, nan, t_in, p_in).value == T(0));
     // Out of range on each axis: the edge value, the axis flag and the generic one.

@@ -249,6 +249,26 @@ TEST_CASE_TEMPLATE("table: the last node is reached from every axis length", T, 
         CHECK(r.value == v[n - 1]);
         CHECK(r.ok());
         CHECK(cf::locate(a, last, cf::status::below_range, cf::status::above_range).index == n - 2);
+        // One ulp either side of the last node: inside unflagged, outside flagged.
+        const cf::result<T> in = cf::interpolate_1d(a, v.data(), std::nextafter(last, T(0)));
+        const cf::result<T> out = cf::interpolate_1d(a, v.data(), std::nextafter(last, T(1e30f)));
+        CHECK(in.ok());
+        CHECK(std::fabs(in.value - v[n - 1]) <= T(4) * std::numeric_limits<T>::epsilon() * v[n - 1]);
+        CHECK(out.code == (cf::status::first_axis_above | cf::status::above_range));
+        CHECK(out.value == v[n - 1]);
+        // And at the first node: one ulp below is flagged, the node itself is not.
+        const cf::result<T> under = cf::interpolate_1d(a, v.data(), std::nextafter(a.origin, T(0)));
+        CHECK(under.code == (cf::status::first_axis_below | cf::status::below_range));
+        CHECK(under.value == v[0]);
+        // The fixed-size table reads the same as the size-erased kernel.
+        if (n == 15) {
+            cf::table_1d<T, 15> t15{a, {}};
+            for (std::size_t i = 0; i < 15; ++i) t15.values[i] = v[i];
+            for (const T x : {T(233), last, std::nextafter(last, T(0)), T(300.3), T(400)}) {
+                CHECK(t15(x).value == cf::interpolate_1d(a, v.data(), x).value);
+                CHECK(t15(x).code == cf::interpolate_1d(a, v.data(), x).code);
+            }
+        }
     }
 }
 
