@@ -121,15 +121,11 @@ struct compensation_grid {
     const T* shape;
 };
 
-/// The reading kernel: one locate per axis, shared by the zero, correction and
-/// curvature tables; no checks (the callers guarantee the arrays and the cells).
+/// The reading at cell positions pt, pp (flags code so far): zero, correction and
+/// curvature read at the same cells.
 template <class T>
-constexpr result<T> read(const compensation_grid<T>& g, T signal_A, T temperature_K, T pressure_Pa) noexcept {
-    const axis_position<T> pt =
-        locate_cells(g.temperature, g.temperature_cells, temperature_K, status::first_axis_below, status::first_axis_above);
-    const axis_position<T> pp =
-        locate_cells(g.pressure, g.pressure_cells, pressure_Pa, status::second_axis_below, status::second_axis_above);
-    status code = pt.code | pp.code;
+constexpr result<T> read_at(const compensation_grid<T>& g, const axis_position<T>& pt, const axis_position<T>& pp,
+                            status code, T signal_A) noexcept {
     const std::size_t stride = static_cast<std::size_t>(g.pressure_cells) + 1u;
     const T zero = lerp(g.zero[pt.index], g.zero[pt.index + 1u], pt.fraction);
     T w = (signal_A - zero) * g.gain * bilinear(g.correction, stride, pt, pp);
@@ -142,6 +138,22 @@ constexpr result<T> read(const compensation_grid<T>& g, T signal_A, T temperatur
         w = w * lerp(g.shape[pz.index], g.shape[pz.index + 1u], pz.fraction);
     }
     return finished(w, signal_A, code);
+}
+
+/// The reading kernel: one locate per axis, shared by the zero, correction and
+/// curvature tables; no checks (the callers guarantee the arrays and the cells).
+/// When both inputs lie inside their axes one branch takes the path with no flags.
+template <class T>
+constexpr result<T> read(const compensation_grid<T>& g, T signal_A, T temperature_K, T pressure_Pa) noexcept {
+    const T tt = position(g.temperature, temperature_K);
+    const T tp = position(g.pressure, pressure_Pa);
+    if (inside(tt, g.temperature_cells) && inside(tp, g.pressure_cells))
+        return read_at(g, position_inside(tt), position_inside(tp), status::ok, signal_A);
+    const axis_position<T> pt =
+        locate_cells(g.temperature, g.temperature_cells, temperature_K, status::first_axis_below, status::first_axis_above);
+    const axis_position<T> pp =
+        locate_cells(g.pressure, g.pressure_cells, pressure_Pa, status::second_axis_below, status::second_axis_above);
+    return read_at(g, pt, pp, pt.code | pp.code, signal_A);
 }
 
 /// A shape axis for views without one (never read).

@@ -141,20 +141,37 @@ namespace detail {
 
 /// locate() on an axis of `cells` cells (count - 1, at least 1), given apart from
 /// the axis so that fixed-size tables pass a constant.
+/// The position t = (x - origin) / step of x in cells, with the stored reciprocal.
+template <class T>
+constexpr T position(const uniform_axis<T>& a, T x) noexcept {
+    return (x - a.origin) * a.inv_step;
+}
+
+/// True when position t is strictly inside an axis of `cells` cells, far enough from
+/// the last node that x is surely below it. x - origin >= 0 exactly when x >= origin,
+/// so t >= 0 is the lower edge test (NaN fails it). At the upper edge t carries the
+/// rounding of x - origin, of inv_step and of the last node (a few eps relative): t
+/// below top (1 - 8 eps) is surely below the last node, and the few inputs closer to
+/// it take the exact test on x in locate_edge.
+template <class T>
+constexpr bool inside(T t, std::ptrdiff_t cells) noexcept {
+    const T top = static_cast<T>(cells);
+    return t >= T(0) && t < top - top * (T(8) * std::numeric_limits<T>::epsilon());
+}
+
+/// The cell and fraction of a position t that is inside().
+template <class T>
+constexpr axis_position<T> position_inside(T t) noexcept {
+    const std::ptrdiff_t i = static_cast<std::ptrdiff_t>(t);  // t >= 0: the truncation is the floor
+    return axis_position<T>{static_cast<std::size_t>(i), t - static_cast<T>(i), status::ok};
+}
+
 template <class T>
 constexpr axis_position<T> locate_cells(const uniform_axis<T>& a, std::ptrdiff_t cells, T x, status below_flag,
                                         status above_flag) noexcept {
+    const T t = position(a, x);
+    if (inside(t, cells)) return position_inside(t);  // the fast path, for x strictly inside
     const T top = static_cast<T>(cells);
-    const T t = (x - a.origin) * a.inv_step;
-    // The fast path, for x strictly inside. x - origin >= 0 exactly when x >= origin,
-    // so t >= 0 is the lower edge test (NaN fails it). At the upper edge t carries
-    // the rounding of x - origin, of inv_step and of the last node (a few eps
-    // relative): t below top (1 - 8 eps) is surely below the last node, and the few
-    // inputs closer to it take the exact test on x in locate_edge.
-    if (t >= T(0) && t < top - top * (T(8) * std::numeric_limits<T>::epsilon())) {
-        const std::ptrdiff_t i = static_cast<std::ptrdiff_t>(t);  // floor, 0 .. cells - 1
-        return axis_position<T>{static_cast<std::size_t>(i), t - static_cast<T>(i), status::ok};
-    }
     return locate_edge(x, t, top, a.origin + top * a.step, cells, below_flag, above_flag, a.origin);
 }
 
