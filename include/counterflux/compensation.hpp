@@ -89,13 +89,76 @@ constexpr result<T> span_from_correction(T correction, status code) noexcept {
     return checked(T(1) / correction, code);
 }
 
-/// The signal to use: the signal when finite, else the zero current (a reading of 0), with not_finite.
+/// True when x lies in [-max, max]: finite, in two comparisons.
 template <class T>
-constexpr T usable_signal(T signal_A, T zero_A, status& code) noexcept {
-    const bool ok = finite(signal_A);
-    code |= ok ? status::ok : status::not_finite;
-    return ok ? signal_A : zero_A;
+constexpr bool within_range(T x) noexcept {
+    return x >= -std::numeric_limits<T>::max() && x <= std::numeric_limits<T>::max();
 }
+
+/// The reading w once computed: a w that is not finite came from a non-finite
+/// signal (reading 0, not_finite) or overflowed (saturated, out_of_domain).
+/// One well-predicted test on the usual path.
+template <class T>
+constexpr result<T> finished(T w, T signal_A, status code) noexcept {
+    if (within_range(w)) return {w, code};
+    if (!within_range(signal_A)) return {T(0), code | status::not_finite};
+    return {finite_or_max(w), code | status::out_of_domain};
+}
+
+/// The raw arrays and cell counts of a compensation, what the kernel reads.
+template <class T>
+struct compensation_grid {
+    const uniform_axis<T>& temperature;
+    std::ptrdiff_t temperature_cells;
+    const uniform_axis<T>& pressure;
+    std::ptrdiff_t pressure_cells;
+    const T* correction;
+    const T* zero;
+    T gain;
+    const uniform_axis<T>& shape_axis;
+    std::ptrdiff_t shape_cells;
+    const T* curvature;  // nullptr: linear law
+    const T* shape;
+};
+
+/// The reading at cell positions pt, pp (flags code so far): zero, correction and
+/// curvature read at the same cells.
+template <class T>
+constexpr result<T> read_at(const compensation_grid<T>& g, const axis_position<T>& pt, const axis_position<T>& pp,
+                            status code, T signal_A) noexcept {
+    const std::size_t stride = static_cast<std::size_t>(g.pressure_cells) + 1u;
+    const T zero = lerp(g.zero[pt.index], g.zero[pt.index + 1u], pt.fraction);
+    T w = (signal_A - zero) * g.gain * bilinear(g.correction, stride, pt, pp);
+    if (g.curvature != nullptr) {
+        if (!within_range(w)) return finished(w, signal_A, code);  // before z, so a bad signal flags no shape edge
+        const T gamma = bilinear(g.curvature, stride, pt, pp);
+        const axis_position<T> pz =
+            locate_cells(g.shape_axis, g.shape_cells, gamma * w, status::below_range, status::above_range);
+        code |= pz.code;
+        w = w * lerp(g.shape[pz.index], g.shape[pz.index + 1u], pz.fraction);
+    }
+    return finished(w, signal_A, code);
+}
+
+/// The reading kernel: one locate per axis, shared by the zero, correction and
+/// curvature tables; no checks (the callers guarantee the arrays and the cells).
+/// When both inputs lie inside their axes one branch takes the path with no flags.
+template <class T>
+constexpr result<T> read(const compensation_grid<T>& g, T signal_A, T temperature_K, T pressure_Pa) noexcept {
+    const T tt = position(g.temperature, temperature_K);
+    const T tp = position(g.pressure, pressure_Pa);
+    if (inside(tt, g.temperature_cells) && inside(tp, g.pressure_cells))
+        return read_at(g, position_inside(tt), position_inside(tp), status::ok, signal_A);
+    const axis_position<T> pt =
+        locate_cells(g.temperature, g.temperature_cells, temperature_K, status::first_axis_below, status::first_axis_above);
+    const axis_position<T> pp =
+        locate_cells(g.pressure, g.pressure_cells, pressure_Pa, status::second_axis_below, status::second_axis_above);
+    return read_at(g, pt, pp, pt.code | pp.code, signal_A);
+}
+
+/// A shape axis for views without one (never read).
+template <class T>
+inline constexpr uniform_axis<T> no_axis{T(0), T(0), T(0), 0u};
 
 /// True when the grids of a view can be read: data present, axes of at least two nodes.
 template <class V, class P>
@@ -130,19 +193,12 @@ constexpr result<T> zero_current(const compensation_ref<T>& c, T temperature_K) 
 template <class T>
 constexpr result<T> reading(const compensation_ref<T>& c, T signal_A, T temperature_K, T pressure_Pa) noexcept {
     if (!detail::readable(c, c.correction, c.zero)) return {T(0), status::out_of_domain};
-    const axis_position<T> pt = locate(c.temperature, temperature_K, status::first_axis_below, status::first_axis_above);
-    const axis_position<T> pp = locate(c.pressure, pressure_Pa, status::second_axis_below, status::second_axis_above);
-    status code = pt.code | pp.code;
-    const T zero = detail::lerp(c.zero[pt.index], c.zero[pt.index + 1u], pt.fraction);
-    const T signal = detail::usable_signal(signal_A, zero, code);
-    T w = (signal - zero) * c.gain * detail::bilinear(c.correction, c.pressure.count, pt, pp);
-    if (c.curvature != nullptr && c.shape != nullptr && c.shape_axis.count >= 2u) {
-        const T gamma = detail::bilinear(c.curvature, c.pressure.count, pt, pp);
-        const axis_position<T> pz = locate(c.shape_axis, gamma * w, status::below_range, status::above_range);
-        code |= pz.code;
-        w = w * detail::lerp(c.shape[pz.index], c.shape[pz.index + 1u], pz.fraction);
-    }
-    return detail::checked(w, code);
+    const bool curved = c.curvature != nullptr && c.shape != nullptr && c.shape_axis.count >= 2u;
+    return detail::read(detail::compensation_grid<T>{c.temperature, detail::cells_of(c.temperature), c.pressure,
+                                                     detail::cells_of(c.pressure), c.correction, c.zero, c.gain,
+                                                     c.shape_axis, detail::cells_of(c.shape_axis),
+                                                     curved ? c.curvature : nullptr, c.shape},
+                        signal_A, temperature_K, pressure_Pa);
 }
 
 // ---------------------------------------------------------------------------
@@ -173,11 +229,11 @@ constexpr result<T> reading(const compensation_q15_ref<T>& c, T signal_A, T temp
     const std::int32_t ft = detail::q15_fraction(pt.fraction);
     const std::int32_t fp = detail::q15_fraction(pp.fraction);
     const T zero = q15_decode(detail::q15_blend(c.zero[pt.index], c.zero[pt.index + 1u], ft), c.zero_scale);
-    const T signal = detail::usable_signal(signal_A, zero, code);
     const T correction =
         q15_decode(detail::q15_bilinear(c.correction, c.pressure.count, pt.index, ft, pp.index, fp), c.correction_scale);
-    T w = (signal - zero) * c.gain * correction;
+    T w = (signal_A - zero) * c.gain * correction;
     if (c.curvature != nullptr && c.shape != nullptr && c.shape_axis.count >= 2u) {
+        if (!detail::within_range(w)) return detail::finished(w, signal_A, code);
         const T gamma =
             q15_decode(detail::q15_bilinear(c.curvature, c.pressure.count, pt.index, ft, pp.index, fp), c.curvature_scale);
         const result<T> h = detail::q15_interpolate_1d_flagged(c.shape_axis, c.shape, c.shape_scale, gamma * w,
@@ -185,7 +241,7 @@ constexpr result<T> reading(const compensation_q15_ref<T>& c, T signal_A, T temp
         code |= h.code;
         w = w * h.value;
     }
-    return detail::checked(w, code);
+    return detail::finished(w, signal_A, code);
 }
 
 // ---------------------------------------------------------------------------
@@ -247,9 +303,15 @@ constexpr result<T> zero_current(const compensation<T, NT, NP>& c, T temperature
 }
 
 /// Reading of a compensation object, mol/mol or Pa (see reading).
+/// (Same result as reading(c.ref(), ...); the sizes are constants here, so the
+/// checks of the view fall away.)
 template <class T, std::size_t NT, std::size_t NP>
 constexpr result<T> reading(const compensation<T, NT, NP>& c, T signal_A, T temperature_K, T pressure_Pa) noexcept {
-    return reading(c.ref(), signal_A, temperature_K, pressure_Pa);
+    return detail::read(detail::compensation_grid<T>{c.correction.axis0, std::ptrdiff_t(NT) - 1, c.correction.axis1,
+                                                     std::ptrdiff_t(NP) - 1, c.correction.values.data(),
+                                                     c.zero.values.data(), c.gain, detail::no_axis<T>, 1, nullptr,
+                                                     nullptr},
+                        signal_A, temperature_K, pressure_Pa);
 }
 
 /// Span factor of a curved compensation object, dimensionless (see span).
@@ -265,10 +327,16 @@ constexpr result<T> zero_current(const curved_compensation<T, NT, NP, NH>& c, T 
 }
 
 /// Reading of a curved compensation object, mol/mol or Pa (see reading).
+/// (Same result as reading(c.ref(), ...), with constant sizes.)
 template <class T, std::size_t NT, std::size_t NP, std::size_t NH>
 constexpr result<T> reading(const curved_compensation<T, NT, NP, NH>& c, T signal_A, T temperature_K,
                             T pressure_Pa) noexcept {
-    return reading(c.ref(), signal_A, temperature_K, pressure_Pa);
+    const compensation<T, NT, NP>& l = c.linear;
+    return detail::read(detail::compensation_grid<T>{l.correction.axis0, std::ptrdiff_t(NT) - 1, l.correction.axis1,
+                                                     std::ptrdiff_t(NP) - 1, l.correction.values.data(),
+                                                     l.zero.values.data(), l.gain, c.shape.axis, std::ptrdiff_t(NH) - 1,
+                                                     c.curvature.values.data(), c.shape.values.data()},
+                        signal_A, temperature_K, pressure_Pa);
 }
 
 // ---------------------------------------------------------------------------

@@ -114,33 +114,97 @@ constexpr T bilinear(const T* values, std::size_t stride, const axis_position<T>
 
 }  // namespace detail
 
-/// The cell and fraction of x on axis a, clamped to the axis: below the first
-/// node (or NaN) index 0 / fraction 0, at or above the last node index count - 2 /
-/// fraction 1. below_flag or above_flag (with below_range / above_range) when x
-/// is outside [first node, last node]; not_finite for NaN or +-inf. Search-free,
-/// no division; the flags and clamps compile to selects.
+namespace detail {
+
+/// locate() for the inputs its fast path does not take: at or beyond an edge,
+/// or not finite. Clamps and flags; branch-free selects.
 template <class T>
-constexpr axis_position<T> locate(const uniform_axis<T>& a, T x, status below_flag, status above_flag) noexcept {
-    const std::size_t last_cell = a.count >= 2u ? a.count - 2u : std::size_t(0);
-    const T top = static_cast<T>(last_cell + 1u);
-    const T last = a.origin + top * a.step;
-    const bool is_nan = !(x == x);
-    const bool below = x < a.origin;
+constexpr axis_position<T> locate_edge(T x, T t, T top, T last, std::ptrdiff_t cells, status below_flag,
+                                       status above_flag, T origin) noexcept {
+    const bool below = x < origin;  // false for NaN
     const bool above = x > last;
-    const bool infinite = x == std::numeric_limits<T>::infinity() || x == -std::numeric_limits<T>::infinity();
-    T t = (x - a.origin) * a.inv_step;
+    // One test for NaN and +-inf: neither lies within [-max, max].
+    const bool not_finite_x = !(x >= -std::numeric_limits<T>::max() && x <= std::numeric_limits<T>::max());
     t = t > T(0) ? t : T(0);  // also maps NaN to 0
     t = t < top ? t : top;
-    // t >= 0 here, so the conversion (a truncation) is the floor.
-    std::size_t i = static_cast<std::size_t>(t);
-    i = i < last_cell ? i : last_cell;
-    T f = t - static_cast<T>(i);
-    f = f < T(1) ? f : T(1);
-    f = x >= last ? T(1) : f;  // the last node exactly, whatever t rounded to
-    return axis_position<T>{i, f, detail::axis_flags(below, above, is_nan || infinite, below_flag, above_flag)};
+    std::ptrdiff_t i = static_cast<std::ptrdiff_t>(t);  // t >= 0: the truncation is the floor
+    i = i < cells - 1 ? i : cells - 1;
+    T f = t - static_cast<T>(i);  // in [0, 1]
+    f = x >= last ? T(1) : f;     // the last node exactly, whatever t rounded to
+    return axis_position<T>{static_cast<std::size_t>(i), f,
+                            axis_flags(below, above, not_finite_x, below_flag, above_flag)};
+}
+
+}  // namespace detail
+
+namespace detail {
+
+/// locate() on an axis of `cells` cells (count - 1, at least 1), given apart from
+/// the axis so that fixed-size tables pass a constant.
+/// The position t = (x - origin) / step of x in cells, with the stored reciprocal.
+template <class T>
+constexpr T position(const uniform_axis<T>& a, T x) noexcept {
+    return (x - a.origin) * a.inv_step;
+}
+
+/// True when position t is strictly inside an axis of `cells` cells, far enough from
+/// the last node that x is surely below it. x - origin >= 0 exactly when x >= origin,
+/// so t >= 0 is the lower edge test (NaN fails it). At the upper edge t carries the
+/// rounding of x - origin, of inv_step and of the last node (a few eps relative): t
+/// below top (1 - 8 eps) is surely below the last node, and the few inputs closer to
+/// it take the exact test on x in locate_edge.
+template <class T>
+constexpr bool inside(T t, std::ptrdiff_t cells) noexcept {
+    const T top = static_cast<T>(cells);
+    return t >= T(0) && t < top - top * (T(8) * std::numeric_limits<T>::epsilon());
+}
+
+/// The cell and fraction of a position t that is inside().
+template <class T>
+constexpr axis_position<T> position_inside(T t) noexcept {
+    const std::ptrdiff_t i = static_cast<std::ptrdiff_t>(t);  // t >= 0: the truncation is the floor
+    return axis_position<T>{static_cast<std::size_t>(i), t - static_cast<T>(i), status::ok};
+}
+
+template <class T>
+constexpr axis_position<T> locate_cells(const uniform_axis<T>& a, std::ptrdiff_t cells, T x, status below_flag,
+                                        status above_flag) noexcept {
+    const T t = position(a, x);
+    if (inside(t, cells)) return position_inside(t);  // the fast path, for x strictly inside
+    const T top = static_cast<T>(cells);
+    return locate_edge(x, t, top, a.origin + top * a.step, cells, below_flag, above_flag, a.origin);
+}
+
+/// The cells of a runtime-sized axis: count - 1, at least 1.
+template <class T>
+constexpr std::ptrdiff_t cells_of(const uniform_axis<T>& a) noexcept {
+    return a.count >= 2u ? static_cast<std::ptrdiff_t>(a.count) - 1 : 1;
+}
+
+}  // namespace detail
+
+/// The cell and fraction of x on an ascending axis a, clamped to the axis: below
+/// the first node (or NaN) index 0 / fraction 0, at or above the last node index
+/// count - 2 / fraction 1. below_flag or above_flag (with below_range /
+/// above_range) when x is outside [first node, last node]; not_finite for NaN or
+/// +-inf. Search-free and division-free; an input inside the axis takes one
+/// well-predicted branch past the clamps and flags. Signed index arithmetic:
+/// float <-> signed integer conversions are single instructions on x86-64 and
+/// Cortex-M4F, unsigned 64-bit ones are not.
+template <class T>
+constexpr axis_position<T> locate(const uniform_axis<T>& a, T x, status below_flag, status above_flag) noexcept {
+    return detail::locate_cells(a, detail::cells_of(a), x, below_flag, above_flag);
 }
 
 namespace detail {
+
+/// 1-D lookup on an axis of `cells` cells with the caller's axis flags (no checks).
+template <class T>
+constexpr result<T> interpolate_1d_cells(const uniform_axis<T>& a, std::ptrdiff_t cells, const T* values, T x,
+                                         status below_flag, status above_flag) noexcept {
+    const axis_position<T> p = locate_cells(a, cells, x, below_flag, above_flag);
+    return {lerp(values[p.index], values[p.index + 1u], p.fraction), p.code};
+}
 
 /// 1-D lookup with the caller's axis flags; out_of_domain and 0 when values is
 /// null or the axis has fewer than 2 nodes.
@@ -148,15 +212,24 @@ template <class T>
 constexpr result<T> interpolate_1d_flagged(const uniform_axis<T>& a, const T* values, T x, status below_flag,
                                            status above_flag) noexcept {
     if (values == nullptr || a.count < 2u) return {T(0), status::out_of_domain};
-    const axis_position<T> p = locate(a, x, below_flag, above_flag);
-    return {lerp(values[p.index], values[p.index + 1u], p.fraction), p.code};
+    return interpolate_1d_cells(a, cells_of(a), values, x, below_flag, above_flag);
+}
+
+/// 2-D lookup on axes of c0 and c1 cells, values[i0 * (c1 + 1) + i1] (no checks).
+template <class T>
+constexpr result<T> interpolate_2d_cells(const uniform_axis<T>& a0, std::ptrdiff_t c0, const uniform_axis<T>& a1,
+                                         std::ptrdiff_t c1, const T* values, T x0, T x1) noexcept {
+    const axis_position<T> p0 = locate_cells(a0, c0, x0, status::first_axis_below, status::first_axis_above);
+    const axis_position<T> p1 = locate_cells(a1, c1, x1, status::second_axis_below, status::second_axis_above);
+    return {bilinear(values, static_cast<std::size_t>(c1) + 1u, p0, p1), p0.code | p1.code};
 }
 
 }  // namespace detail
 
 /// Linear interpolation of values[0 .. a.count - 1] on axis a at x, in the unit
 /// of the values. Clamped at the edges with first_axis_below / first_axis_above
-/// (and below_range / above_range); not_finite for non-finite x.
+/// (and below_range / above_range); not_finite for non-finite x; out_of_domain and
+/// 0 for null data or an axis of fewer than 2 nodes.
 template <class T>
 constexpr result<T> interpolate_1d(const uniform_axis<T>& a, const T* values, T x) noexcept {
     return detail::interpolate_1d_flagged(a, values, x, status::first_axis_below, status::first_axis_above);
@@ -165,14 +238,12 @@ constexpr result<T> interpolate_1d(const uniform_axis<T>& a, const T* values, T 
 /// Bilinear interpolation of values[i0 * a1.count + i1] on axes a0 (first, e.g.
 /// temperature) and a1 (second, e.g. pressure) at (x0, x1), in the unit of the
 /// values. Clamped at every edge with that axis's flag; not_finite for
-/// non-finite input.
+/// non-finite input; out_of_domain and 0 for null data or a short axis.
 template <class T>
 constexpr result<T> interpolate_2d(const uniform_axis<T>& a0, const uniform_axis<T>& a1, const T* values, T x0,
                                    T x1) noexcept {
     if (values == nullptr || a0.count < 2u || a1.count < 2u) return {T(0), status::out_of_domain};
-    const axis_position<T> p0 = locate(a0, x0, status::first_axis_below, status::first_axis_above);
-    const axis_position<T> p1 = locate(a1, x1, status::second_axis_below, status::second_axis_above);
-    return {detail::bilinear(values, a1.count, p0, p1), p0.code | p1.code};
+    return detail::interpolate_2d_cells(a0, detail::cells_of(a0), a1, detail::cells_of(a1), values, x0, x1);
 }
 
 // ---------------------------------------------------------------------------
@@ -186,7 +257,11 @@ struct table_1d {
     std::array<T, N> values;  ///< value at each node
 
     /// The interpolated value at x (see interpolate_1d), unit of the values.
-    constexpr result<T> operator()(T x) const noexcept { return interpolate_1d(axis, values.data(), x); }
+    /// (The size N, not axis.count, bounds the reads.)
+    constexpr result<T> operator()(T x) const noexcept {
+        return detail::interpolate_1d_cells(axis, std::ptrdiff_t(N) - 1, values.data(), x, status::first_axis_below,
+                                            status::first_axis_above);
+    }
 };
 
 /// N0 x N1 values on two uniform axes, interpolated bilinearly; values[i0 * N1 + i1].
@@ -198,8 +273,10 @@ struct table_2d {
     std::array<T, N0 * N1> values;  ///< row-major: values[i0 * N1 + i1]
 
     /// The interpolated value at (x0, x1) (see interpolate_2d), unit of the values.
+    /// (The sizes N0, N1, not the axes' counts, bound the reads.)
     constexpr result<T> operator()(T x0, T x1) const noexcept {
-        return interpolate_2d(axis0, axis1, values.data(), x0, x1);
+        return detail::interpolate_2d_cells(axis0, std::ptrdiff_t(N0) - 1, axis1, std::ptrdiff_t(N1) - 1,
+                                            values.data(), x0, x1);
     }
 };
 
@@ -277,7 +354,8 @@ constexpr T q15_decode(std::int16_t q, const q15_scale<T>& s) noexcept {
 
 /// An integer uniform axis: node i is origin + i * step (step >= 2); inv_step_q32 =
 /// round(2^32 / step) makes the cell a multiply and a shift. count 0 marks an
-/// invalid axis (every lookup returns out_of_domain).
+/// invalid axis (every lookup returns out_of_domain). The Q15 fraction is within
+/// 1/2 + step / 2^16 counts: keep step below 2^15 units (mK and Pa steps are).
 struct q15_axis {
     std::int32_t origin;         ///< first node, axis unit (mK, Pa, ...)
     std::int32_t step;           ///< node spacing, axis unit, >= 2
@@ -310,21 +388,25 @@ struct q15_position {
 namespace detail {
 
 /// The cell and Q15 fraction of x on a valid q15 axis, clamped with the given flags.
-/// Integer only: one 32 x 32 -> 64-bit multiply for the position.
+/// Integer only: one 32 x 32 -> 64-bit multiply estimates the cell, the exact
+/// remainder corrects it (so every node is hit exactly), and a 32-bit multiply by
+/// the Q31 inverse gives the fraction, within 1/2 + step / 2^16 Q15 counts.
 constexpr q15_position q15_locate(const q15_axis& a, std::int32_t x, status below_flag, status above_flag) noexcept {
     const std::size_t last_cell = a.count - 2u;
     const std::int32_t last = a.origin + a.step * static_cast<std::int32_t>(last_cell + 1u);  // fits: see make_q15_axis
     if (x <= a.origin) return {0u, 0, axis_flags(x < a.origin, false, false, below_flag, above_flag)};
     if (x >= last) return {last_cell, 32768, axis_flags(false, x > last, false, below_flag, above_flag)};
-    // 0 < d < step * (count - 1) <= 2^31: unsigned arithmetic, no overflow.
+    // 0 < d < step * (count - 1) < 2^31: unsigned arithmetic, no overflow.
     const std::uint32_t d = static_cast<std::uint32_t>(x) - static_cast<std::uint32_t>(a.origin);
-    const std::uint64_t p = static_cast<std::uint64_t>(d) * a.inv_step_q32;  // cells in Q32
-    std::size_t i = static_cast<std::size_t>(p >> 32);
-    const std::uint32_t frac32 = static_cast<std::uint32_t>(p);
-    // Round the Q32 fraction to Q15 (0 .. 32768) without overflowing 32 bits.
-    std::int32_t f = static_cast<std::int32_t>((frac32 >> 17) + ((frac32 >> 16) & 1u));
-    if (i > last_cell) { i = last_cell; f = 32768; }  // rounding of inv_step just past the last node
-    return {i, f, status::ok};
+    const std::uint32_t step = static_cast<std::uint32_t>(a.step);
+    // d / step + at most 1/4 (the rounding of inv_step_q32 times d < 2^31): floor is off by at most one.
+    std::uint32_t i = static_cast<std::uint32_t>((static_cast<std::uint64_t>(d) * a.inv_step_q32) >> 32);
+    std::uint32_t r = d - i * step;  // wraps above d when i is one too high
+    if (r > d) { --i; r += step; }
+    if (r >= step) { ++i; r -= step; }
+    // r < step: r * (2^31 / step) < 2^31 + step / 2, and the rounding term keeps it below 2^32.
+    const std::uint32_t f = (r * (a.inv_step_q32 >> 1) + (std::uint32_t(1) << 15)) >> 16;
+    return {static_cast<std::size_t>(i), static_cast<std::int32_t>(f > 32768u ? 32768u : f), status::ok};
 }
 
 /// round((32768 - f) q0 + f q1) / 32768) for f in 0 .. 32768: exact weights, the
