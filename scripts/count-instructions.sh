@@ -1,12 +1,14 @@
 #!/usr/bin/env bash
 # Instructions per call of the generated garage_co_reading() in a minimal loop
-# (bench/instructions/reading_loop.c), counted by callgrind: deterministic for a
+# (bench/instructions/reading_loop.c; the library's reading() in
+# library_loop.cpp for comparison), counted by callgrind: deterministic for a
 # given binary, unlike a timing. Prints both loops' counts and the goal; exits 1
 # when the reading exceeds it (GOAL, default 60) unless WARN_ONLY=1.
 #   scripts/count-instructions.sh [build/dev]
 set -euo pipefail
 build="${1:-build/dev}"
 exe="$build/bench/instructions/counterflux_reading_loop"
+lib_exe="$build/bench/instructions/counterflux_library_loop"
 goal="${GOAL:-60}"
 calls=100000
 [ -x "$exe" ] || { echo "count-instructions: $exe not built" >&2; exit 1; }
@@ -14,7 +16,7 @@ command -v valgrind >/dev/null || { echo "count-instructions: valgrind not insta
 tmp="$(mktemp -d)"
 trap 'rm -rf "$tmp"' EXIT
 per_call() {
-  valgrind --tool=callgrind --callgrind-out-file="$tmp/$1.out" --toggle-collect="$1" "$exe" "$calls" \
+  valgrind --tool=callgrind --callgrind-out-file="$tmp/$1.out" --toggle-collect="$1" "${2:-$exe}" "$calls" \
     >/dev/null 2>"$tmp/$1.log"
   local total
   total="$(sed -n 's/^.*Collected : \([0-9]*\).*$/\1/p' "$tmp/$1.log")"
@@ -23,8 +25,9 @@ per_call() {
 }
 reading="$(per_call loop_reading)"
 plain="$(per_call loop_plain)"
+library="$(per_call loop_library "$lib_exe")"
 echo "-- instructions per call (callgrind, -O2, loop included): garage_co_reading $reading," \
-     "plain bilinear kernel $plain; goal for the reading <= $goal"
+     "library counterflux::reading $library, plain bilinear kernel $plain; goal for the generated reading <= $goal"
 if [ "$reading" -gt "$goal" ]; then
   echo "-- instruction count above the goal" >&2
   [ "${WARN_ONLY:-0}" = 1 ] || exit 1
