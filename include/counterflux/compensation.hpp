@@ -29,6 +29,7 @@
 #ifndef COUNTERFLUX_COMPENSATION_HPP
 #define COUNTERFLUX_COMPENSATION_HPP
 
+#include <array>
 #include <cmath>
 #include <cstddef>
 #include <cstdint>
@@ -91,7 +92,7 @@ constexpr result<T> span_from_correction(T correction, status code) noexcept {
 
 /// True when x lies in [-max, max]: finite, in two comparisons.
 template <class T>
-constexpr bool within_range(T x) noexcept {
+[[gnu::always_inline]] constexpr bool within_range(T x) noexcept {
     return x >= -std::numeric_limits<T>::max() && x <= std::numeric_limits<T>::max();
 }
 
@@ -102,68 +103,49 @@ template <class T>
 constexpr result<T> finished(T w, T signal_A, status code) noexcept {
     if (within_range(w)) return {w, code};
     if (!within_range(signal_A)) return {T(0), code | status::not_finite};
-    return {finite_or_max(w), code | status::out_of_domain};
+    const T saturated = w < T(0) ? -std::numeric_limits<T>::max() : std::numeric_limits<T>::max();
+    return {w == w ? saturated : T(0), code | status::out_of_domain};  // w is +-inf or NaN here
 }
 
-/// The raw arrays and cell counts of a compensation, what the kernel reads.
+/// The linear reading w = (I - I_0(T)) gain c(T, P) at cell positions pt, pp, in
+/// reading units; the one expression both the fast paths and the kernel evaluate.
 template <class T>
-struct compensation_grid {
-    const uniform_axis<T>& temperature;
-    std::ptrdiff_t temperature_cells;
-    const uniform_axis<T>& pressure;
-    std::ptrdiff_t pressure_cells;
-    const T* correction;
-    const T* zero;
-    T gain;
-    const uniform_axis<T>& shape_axis;
-    std::ptrdiff_t shape_cells;
-    const T* curvature;  // nullptr: linear law
-    const T* shape;
-};
-
-/// The reading at cell positions pt, pp (flags code so far): zero, correction and
-/// curvature read at the same cells.
-template <class T>
-constexpr result<T> read_at(const compensation_grid<T>& g, const axis_position<T>& pt, const axis_position<T>& pp,
-                            status code, T signal_A) noexcept {
-    const std::size_t stride = static_cast<std::size_t>(g.pressure_cells) + 1u;
-    const T zero = lerp(g.zero[pt.index], g.zero[pt.index + 1u], pt.fraction);
-    T w = (signal_A - zero) * g.gain * bilinear(g.correction, stride, pt, pp);
-    if (g.curvature != nullptr) {
-        if (!within_range(w)) return finished(w, signal_A, code);  // before z, so a bad signal flags no shape edge
-        const T gamma = bilinear(g.curvature, stride, pt, pp);
-        const axis_position<T> pz =
-            locate_cells(g.shape_axis, g.shape_cells, gamma * w, status::below_range, status::above_range);
-        code |= pz.code;
-        w = w * lerp(g.shape[pz.index], g.shape[pz.index + 1u], pz.fraction);
-    }
-    return finished(w, signal_A, code);
+[[gnu::always_inline]] constexpr T linear_at(const T* correction, const T* zero, std::size_t stride, T gain,
+                                             const axis_position<T>& pt, const axis_position<T>& pp,
+                                             T signal_A) noexcept {
+    const T zero_A = lerp(zero[pt.index], zero[pt.index + 1u], pt.fraction);
+    return (signal_A - zero_A) * gain * bilinear(correction, stride, pt, pp);
 }
-
-/// The reading kernel: one locate per axis, shared by the zero, correction and
-/// curvature tables; no checks (the callers guarantee the arrays and the cells).
-/// When both inputs lie inside their axes one branch takes the path with no flags.
-template <class T>
-constexpr result<T> read(const compensation_grid<T>& g, T signal_A, T temperature_K, T pressure_Pa) noexcept {
-    const T tt = position(g.temperature, temperature_K);
-    const T tp = position(g.pressure, pressure_Pa);
-    if (inside(tt, g.temperature_cells) && inside(tp, g.pressure_cells))
-        return read_at(g, position_inside(tt), position_inside(tp), status::ok, signal_A);
-    const axis_position<T> pt =
-        locate_cells(g.temperature, g.temperature_cells, temperature_K, status::first_axis_below, status::first_axis_above);
-    const axis_position<T> pp =
-        locate_cells(g.pressure, g.pressure_cells, pressure_Pa, status::second_axis_below, status::second_axis_above);
-    return read_at(g, pt, pp, pt.code | pp.code, signal_A);
-}
-
-/// A shape axis for views without one (never read).
-template <class T>
-inline constexpr uniform_axis<T> no_axis{T(0), T(0), T(0), 0u};
 
 /// True when the grids of a view can be read: data present, axes of at least two nodes.
 template <class V, class P>
 constexpr bool readable(const V& c, const P* correction, const P* zero) noexcept {
     return correction != nullptr && zero != nullptr && c.temperature.count >= 2u && c.pressure.count >= 2u;
+}
+
+/// The full reading of a view, the kernel every reading ends in: checks, one
+/// locate per axis (shared by the zero, correction and curvature tables), the
+/// non-linear law, edges and flags. Out of line, so that the readings' inline fast
+/// paths (linear law, inside the grid) keep their values in registers.
+template <class T>
+[[gnu::noinline]] constexpr result<T> read_view(const compensation_ref<T>& c, T signal_A, T temperature_K,
+                                                T pressure_Pa) noexcept {
+    if (!readable(c, c.correction, c.zero)) return {T(0), status::out_of_domain};
+    const axis_position<T> pt =
+        locate_clamped(c.temperature, temperature_K, status::first_axis_below, status::first_axis_above);
+    const axis_position<T> pp =
+        locate_clamped(c.pressure, pressure_Pa, status::second_axis_below, status::second_axis_above);
+    status code = pt.code | pp.code;
+    T w = linear_at(c.correction, c.zero, c.pressure.count, c.gain, pt, pp, signal_A);
+    if (c.curvature != nullptr && c.shape != nullptr && c.shape_axis.count >= 2u && within_range(w)) {
+        // (only for a finite w, so a bad signal flags no shape edge)
+        const T gamma = bilinear(c.curvature, c.pressure.count, pt, pp);
+        const axis_position<T> pz =
+            locate_clamped(c.shape_axis, gamma * w, status::below_range, status::above_range);
+        code |= pz.code;
+        w = w * lerp(c.shape[pz.index], c.shape[pz.index + 1u], pz.fraction);
+    }
+    return finished(w, signal_A, code);
 }
 
 }  // namespace detail
@@ -190,15 +172,21 @@ constexpr result<T> zero_current(const compensation_ref<T>& c, T temperature_K) 
 /// a partial-pressure sensor. Temperature and pressure clamp to the grid (axis
 /// flags); w outside the shape axis clamps there (below_range / above_range); a
 /// non-finite signal reads 0 with not_finite; an overflow saturates (out_of_domain).
+/// (Inline fast path: linear law, both inputs strictly inside the grid and a finite
+/// w; everything else goes to the out-of-line kernel, with the same arithmetic.)
 template <class T>
 constexpr result<T> reading(const compensation_ref<T>& c, T signal_A, T temperature_K, T pressure_Pa) noexcept {
-    if (!detail::readable(c, c.correction, c.zero)) return {T(0), status::out_of_domain};
-    const bool curved = c.curvature != nullptr && c.shape != nullptr && c.shape_axis.count >= 2u;
-    return detail::read(detail::compensation_grid<T>{c.temperature, detail::cells_of(c.temperature), c.pressure,
-                                                     detail::cells_of(c.pressure), c.correction, c.zero, c.gain,
-                                                     c.shape_axis, detail::cells_of(c.shape_axis),
-                                                     curved ? c.curvature : nullptr, c.shape},
-                        signal_A, temperature_K, pressure_Pa);
+    const T tt = detail::position(c.temperature, temperature_K);
+    const T tp = detail::position(c.pressure, pressure_Pa);
+    // count - 1 as the cells: an axis of fewer than 2 nodes fails inside().
+    if (c.curvature == nullptr && c.correction != nullptr && c.zero != nullptr &&
+        detail::inside(tt, static_cast<std::ptrdiff_t>(c.temperature.count) - 1) &&
+        detail::inside(tp, static_cast<std::ptrdiff_t>(c.pressure.count) - 1)) {
+        const T w = detail::linear_at(c.correction, c.zero, c.pressure.count, c.gain, detail::position_inside(tt),
+                                      detail::position_inside(tp), signal_A);
+        if (detail::within_range(w)) return {w, status::ok};
+    }
+    return detail::read_view(c, signal_A, temperature_K, pressure_Pa);
 }
 
 // ---------------------------------------------------------------------------
@@ -248,17 +236,19 @@ constexpr result<T> reading(const compensation_q15_ref<T>& c, T signal_A, T temp
 // Fixed-size compensation objects
 
 /// A linear-law compensation: span correction c(T, P) = 1/s on NT x NP nodes,
-/// zero current on the same NT temperatures, and the gain.
+/// zero current on the same NT temperatures, and the gain. Compact: the
+/// temperature axis is stored once (correction.axis0, shared by zero) and each
+/// axis as origin and 1/step, so a float 15 x 9 one is its 600 B of data + 20 B.
 template <class T, std::size_t NT, std::size_t NP>
 struct compensation {
-    table_2d<T, NT, NP> correction;  ///< c = 1/s over (T in K, P in Pa), dimensionless
-    table_1d<T, NT> zero;            ///< I_0(T), A; its axis must equal correction.axis0
-    T gain;                          ///< reading units per A at the reference
+    compact_table_2d<T, NT, NP> correction;  ///< c = 1/s over (T in K, P in Pa), dimensionless
+    std::array<T, NT> zero;                  ///< I_0(T) on correction.axis0, A
+    T gain;                                  ///< reading units per A at the reference
 
-    /// The size-erased view of these tables (temperature axis: correction.axis0).
+    /// The size-erased view of these tables (axes built from the compact ones).
     constexpr compensation_ref<T> ref() const noexcept {
-        return compensation_ref<T>{correction.axis0, correction.axis1, correction.values.data(), zero.values.data(),
-                                   gain, uniform_axis<T>{T(0), T(0), T(0), 0u}, nullptr, nullptr};
+        return compensation_ref<T>{correction.axis0.uniform(), correction.axis1.uniform(), correction.values.data(),
+                                   zero.data(), gain, uniform_axis<T>{T(0), T(0), T(0), 0u}, nullptr, nullptr};
     }
 };
 
@@ -286,8 +276,10 @@ template <class T, std::size_t NT, std::size_t NP>
 constexpr compensation<T, NT, NP> make_compensation(T t_from_K, T t_to_K, T p_from_Pa, T p_to_Pa,
                                                     const T (&correction)[NT * NP], const T (&zero_A)[NT],
                                                     T gain) noexcept {
-    return compensation<T, NT, NP>{make_table_2d<T, NT, NP>(t_from_K, t_to_K, p_from_Pa, p_to_Pa, correction),
-                                   make_table_1d(t_from_K, t_to_K, zero_A), gain};
+    compensation<T, NT, NP> c{make_compact_table_2d<T, NT, NP>(t_from_K, t_to_K, p_from_Pa, p_to_Pa, correction), {},
+                              gain};
+    for (std::size_t i = 0; i < NT; ++i) c.zero[i] = zero_A[i];
+    return c;
 }
 
 /// Span factor of a compensation object, dimensionless (see span).
@@ -302,16 +294,30 @@ constexpr result<T> zero_current(const compensation<T, NT, NP>& c, T temperature
     return zero_current(c.ref(), temperature_K);
 }
 
+namespace detail {
+
+/// The full reading of a compensation object (edges, flags), out of line: its view's kernel.
+template <class T, std::size_t NT, std::size_t NP>
+[[gnu::noinline]] constexpr result<T> read_fixed(const compensation<T, NT, NP>& c, T signal_A, T temperature_K,
+                                                 T pressure_Pa) noexcept {
+    return read_view(c.ref(), signal_A, temperature_K, pressure_Pa);
+}
+
+}  // namespace detail
+
 /// Reading of a compensation object, mol/mol or Pa (see reading).
-/// (Same result as reading(c.ref(), ...); the sizes are constants here, so the
-/// checks of the view fall away.)
+/// (Same result as reading(c.ref(), ...), bit for bit; the sizes are constants
+/// here, so the checks of the view fall away.)
 template <class T, std::size_t NT, std::size_t NP>
 constexpr result<T> reading(const compensation<T, NT, NP>& c, T signal_A, T temperature_K, T pressure_Pa) noexcept {
-    return detail::read(detail::compensation_grid<T>{c.correction.axis0, std::ptrdiff_t(NT) - 1, c.correction.axis1,
-                                                     std::ptrdiff_t(NP) - 1, c.correction.values.data(),
-                                                     c.zero.values.data(), c.gain, detail::no_axis<T>, 1, nullptr,
-                                                     nullptr},
-                        signal_A, temperature_K, pressure_Pa);
+    const T tt = detail::position(c.correction.axis0, temperature_K);
+    const T tp = detail::position(c.correction.axis1, pressure_Pa);
+    if (detail::inside(tt, std::ptrdiff_t(NT) - 1) && detail::inside(tp, std::ptrdiff_t(NP) - 1)) {
+        const T w = detail::linear_at(c.correction.values.data(), c.zero.data(), NP, c.gain,
+                                      detail::position_inside(tt), detail::position_inside(tp), signal_A);
+        if (detail::within_range(w)) return {w, status::ok};
+    }
+    return detail::read_fixed(c, signal_A, temperature_K, pressure_Pa);
 }
 
 /// Span factor of a curved compensation object, dimensionless (see span).
@@ -326,17 +332,12 @@ constexpr result<T> zero_current(const curved_compensation<T, NT, NP, NH>& c, T 
     return zero_current(c.ref(), temperature_K);
 }
 
-/// Reading of a curved compensation object, mol/mol or Pa (see reading).
-/// (Same result as reading(c.ref(), ...), with constant sizes.)
+/// Reading of a curved compensation object, mol/mol or Pa (see reading): the
+/// kernel of its view, so the same result as reading(c.ref(), ...).
 template <class T, std::size_t NT, std::size_t NP, std::size_t NH>
 constexpr result<T> reading(const curved_compensation<T, NT, NP, NH>& c, T signal_A, T temperature_K,
                             T pressure_Pa) noexcept {
-    const compensation<T, NT, NP>& l = c.linear;
-    return detail::read(detail::compensation_grid<T>{l.correction.axis0, std::ptrdiff_t(NT) - 1, l.correction.axis1,
-                                                     std::ptrdiff_t(NP) - 1, l.correction.values.data(),
-                                                     l.zero.values.data(), l.gain, c.shape.axis, std::ptrdiff_t(NH) - 1,
-                                                     c.curvature.values.data(), c.shape.values.data()},
-                        signal_A, temperature_K, pressure_Pa);
+    return detail::read_view(c.ref(), signal_A, temperature_K, pressure_Pa);
 }
 
 // ---------------------------------------------------------------------------

@@ -99,13 +99,13 @@ constexpr status axis_flags(bool below, bool above, bool not_finite_input, statu
 
 /// One linear blend (1 - f) v0 + f v1.
 template <class T>
-constexpr T lerp(T v0, T v1, T f) noexcept {
+[[gnu::always_inline]] constexpr T lerp(T v0, T v1, T f) noexcept {
     return (T(1) - f) * v0 + f * v1;
 }
 
 /// Bilinear blend of the cell at (p0, p1) of values[i0 * stride + i1].
 template <class T>
-constexpr T bilinear(const T* values, std::size_t stride, const axis_position<T>& p0,
+[[gnu::always_inline]] constexpr T bilinear(const T* values, std::size_t stride, const axis_position<T>& p0,
                      const axis_position<T>& p1) noexcept {
     const T* row0 = values + p0.index * stride + p1.index;
     const T* row1 = row0 + stride;
@@ -143,7 +143,7 @@ namespace detail {
 /// the axis so that fixed-size tables pass a constant.
 /// The position t = (x - origin) / step of x in cells, with the stored reciprocal.
 template <class T>
-constexpr T position(const uniform_axis<T>& a, T x) noexcept {
+[[gnu::always_inline]] constexpr T position(const uniform_axis<T>& a, T x) noexcept {
     return (x - a.origin) * a.inv_step;
 }
 
@@ -154,14 +154,14 @@ constexpr T position(const uniform_axis<T>& a, T x) noexcept {
 /// below top (1 - 8 eps) is surely below the last node, and the few inputs closer to
 /// it take the exact test on x in locate_edge.
 template <class T>
-constexpr bool inside(T t, std::ptrdiff_t cells) noexcept {
+[[gnu::always_inline]] constexpr bool inside(T t, std::ptrdiff_t cells) noexcept {
     const T top = static_cast<T>(cells);
     return t >= T(0) && t < top - top * (T(8) * std::numeric_limits<T>::epsilon());
 }
 
 /// The cell and fraction of a position t that is inside().
 template <class T>
-constexpr axis_position<T> position_inside(T t) noexcept {
+[[gnu::always_inline]] constexpr axis_position<T> position_inside(T t) noexcept {
     const std::ptrdiff_t i = static_cast<std::ptrdiff_t>(t);  // t >= 0: the truncation is the floor
     return axis_position<T>{static_cast<std::size_t>(i), t - static_cast<T>(i), status::ok};
 }
@@ -179,6 +179,16 @@ constexpr axis_position<T> locate_cells(const uniform_axis<T>& a, std::ptrdiff_t
 template <class T>
 constexpr std::ptrdiff_t cells_of(const uniform_axis<T>& a) noexcept {
     return a.count >= 2u ? static_cast<std::ptrdiff_t>(a.count) - 1 : 1;
+}
+
+/// locate() without its fast path, for the kernels' edge paths (one copy serves
+/// every axis): the same cell, fraction and flags for every x, branch-free.
+template <class T>
+[[gnu::noinline]] constexpr axis_position<T> locate_clamped(const uniform_axis<T>& a, T x, status below_flag,
+                                                            status above_flag) noexcept {
+    const std::ptrdiff_t cells = cells_of(a);
+    const T top = static_cast<T>(cells);
+    return locate_edge(x, position(a, x), top, a.origin + top * a.step, cells, below_flag, above_flag, a.origin);
 }
 
 }  // namespace detail
@@ -293,6 +303,88 @@ constexpr table_1d<T, N> make_table_1d(T from, T to, const T (&values)[N]) noexc
 template <class T, std::size_t N0, std::size_t N1>
 constexpr table_2d<T, N0, N1> make_table_2d(T from0, T to0, T from1, T to1, const T (&values)[N0 * N1]) noexcept {
     table_2d<T, N0, N1> t{make_uniform_axis(from0, to0, N0), make_uniform_axis(from1, to1, N1), {}};
+    for (std::size_t i = 0; i < N0 * N1; ++i) t.values[i] = values[i];
+    return t;
+}
+
+// ---------------------------------------------------------------------------
+// Compact fixed-size axes and tables (the count is a template parameter)
+
+/// A uniform axis of N nodes held in flash as two numbers: origin and 1/step. The
+/// step, which only the edge path and design-time code need, is derived as
+/// 1 / inv_step, so node i is origin + i * step() everywhere.
+template <class T, std::size_t N>
+struct compact_axis {
+    static_assert(N >= 2, "an axis needs at least two nodes");
+    T origin;    ///< first node, in the unit of the axis (K, Pa, ...)
+    T inv_step;  ///< 1 / step, per unit of the axis (0 for a degenerate axis)
+
+    /// The node spacing 1 / inv_step, unit of the axis (0 when inv_step is 0 or the quotient overflows).
+    constexpr T step() const noexcept {
+        const T s = inv_step != T(0) ? T(1) / inv_step : T(0);
+        return detail::finite(s) ? s : T(0);
+    }
+
+    /// The same axis as a uniform_axis (what the size-erased views hold).
+    constexpr uniform_axis<T> uniform() const noexcept { return uniform_axis<T>{origin, step(), inv_step, N}; }
+
+    /// Converts to the uniform_axis of uniform().
+    constexpr operator uniform_axis<T>() const noexcept { return uniform(); }
+};
+
+namespace detail {
+
+/// The position t = (x - origin) / step of x in cells on a compact axis, with the stored reciprocal.
+template <class T, std::size_t N>
+[[gnu::always_inline]] constexpr T position(const compact_axis<T, N>& a, T x) noexcept {
+    return (x - a.origin) * a.inv_step;
+}
+
+}  // namespace detail
+
+/// The compact axis of N nodes from `from` to `to`: inv_step as make_uniform_axis
+/// gives it, nudged by an ulp or two where that makes the derived last node
+/// from + (N - 1) / inv_step equal `to` exactly.
+template <class T, std::size_t N>
+constexpr compact_axis<T, N> make_compact_axis(T from, T to) noexcept {
+    compact_axis<T, N> a{from, make_uniform_axis(from, to, N).inv_step};
+    const T cells = static_cast<T>(N - 1u);
+    if (a.inv_step != T(0) && from + cells * a.step() != to) {
+        const T nudge = a.inv_step * std::numeric_limits<T>::epsilon();
+        const T candidates[4] = {a.inv_step + nudge, a.inv_step - nudge, a.inv_step + T(2) * nudge,
+                                 a.inv_step - T(2) * nudge};
+        for (const T c : candidates) {
+            const compact_axis<T, N> b{from, c};
+            if (from + cells * b.step() == to) {
+                a = b;
+                break;
+            }
+        }
+    }
+    return a;
+}
+
+/// N0 x N1 values on two compact axes, row-major (values[i0 * N1 + i1]).
+template <class T, std::size_t N0, std::size_t N1>
+struct compact_table_2d {
+    compact_axis<T, N0> axis0;      ///< first axis (temperature)
+    compact_axis<T, N1> axis1;      ///< second axis (pressure)
+    std::array<T, N0 * N1> values;  ///< row-major values
+
+    /// The interpolated value at (x0, x1) (see interpolate_2d), unit of the values.
+    constexpr result<T> operator()(T x0, T x1) const noexcept {
+        const uniform_axis<T> a0 = axis0.uniform(), a1 = axis1.uniform();
+        return detail::interpolate_2d_cells(a0, std::ptrdiff_t(N0) - 1, a1, std::ptrdiff_t(N1) - 1, values.data(),
+                                            x0, x1);
+    }
+};
+
+/// A compact 2-D table on [from0, to0] x [from1, to1] holding the N0 x N1 node
+/// values row-major; N0 and N1 are given explicitly.
+template <class T, std::size_t N0, std::size_t N1>
+constexpr compact_table_2d<T, N0, N1> make_compact_table_2d(T from0, T to0, T from1, T to1,
+                                                            const T (&values)[N0 * N1]) noexcept {
+    compact_table_2d<T, N0, N1> t{make_compact_axis<T, N0>(from0, to0), make_compact_axis<T, N1>(from1, to1), {}};
     for (std::size_t i = 0; i < N0 * N1; ++i) t.values[i] = values[i];
     return t;
 }

@@ -284,7 +284,7 @@ TEST_CASE("compensation: a 15 x 9 linear table reads the full model within its m
         worst_ratio = std::fmax(worst_ratio, std::fabs(r.value - model.value) / bound);
         CHECK(std::fabs(r.value - model.value) <= bound);
         // span() and zero_current() are the tables' own pieces.
-        CHECK(cf::span(comp, t, p).value * cf::interpolate_2d(comp.correction.axis0, comp.correction.axis1,
+        CHECK(cf::span(comp, t, p).value * cf::interpolate_2d(comp.ref().temperature, comp.ref().pressure,
                                                               comp.correction.values.data(), t, p).value ==
               doctest::Approx(1.0).epsilon(1e-15));
     }
@@ -532,4 +532,45 @@ TEST_CASE_TEMPLATE("compensation: out-of-range and non-finite inputs of every fu
     const cf::result<T> s0 = cf::span(zeroed, t_in, p_in);
     CHECK(s0.value == T(1));
     CHECK(s0.code == cf::status::out_of_domain);
+}
+
+// ---------------------------------------------------------------------------
+// The compact fixed-size object: shared temperature axis, axes as origin and 1/step.
+static_assert(sizeof(cf::compensation<float, 15, 9>) == 15 * 9 * 4 + 15 * 4 + 2 * 8 + 4,
+              "a float 15 x 9 compensation is its data, two compact axes and the gain");
+static_assert(sizeof(cf::compact_axis<float, 15>) == 8, "a compact axis is origin and 1/step");
+
+TEST_CASE_TEMPLATE("compensation: the compact object reads bit for bit as its ref() view, edges and flags too", T,
+                   float, double) {
+    constexpr std::size_t n0 = 15, n1 = 9;
+    T corr[n0 * n1] = {}, zero[n0] = {};
+    for (std::size_t i = 0; i < n0; ++i) {
+        for (std::size_t j = 0; j < n1; ++j)
+            corr[i * n1 + j] = T(1) / (T(1) + T(0.003) * static_cast<T>(i) - T(0.002) * static_cast<T>(j));
+        zero[i] = T(1e-9) + T(0.1e-9) * static_cast<T>(i);
+    }
+    const cf::compensation<T, n0, n1> c =
+        cf::make_compensation<T, n0, n1>(T(253.15), T(323.15), T(70000), T(110000), corr, zero, T(1) / T(1.7e-3));
+    const cf::compensation_ref<T> r = c.ref();
+    // The view's axes: the derived last node is the given end, so it reads exactly the last node.
+    CHECK(r.temperature.count == n0);
+    CHECK(r.pressure.count == n1);
+    CHECK(cf::axis_node(r.temperature, n0 - 1) == T(323.15));
+    CHECK(cf::axis_node(r.pressure, n1 - 1) == T(110000));
+    CHECK(r.temperature.inv_step == c.correction.axis0.inv_step);
+    CHECK(cf::zero_current(c, T(323.15)).value == zero[n0 - 1]);
+    CHECK(cf::zero_current(c, T(323.15)).ok());
+    const T inf = std::numeric_limits<T>::infinity(), nan = std::numeric_limits<T>::quiet_NaN();
+    const T ts[] = {T(200), T(253.15), T(253.2), T(288.7), T(323.1499), T(323.15), T(330), nan, inf, -inf};
+    const T ps[] = {T(0), T(70000), T(70001), T(95000), T(109999.99), T(110000), T(2e5), nan, inf, -inf};
+    const T is[] = {T(0), T(5e-7), T(-3e-7), T(1e30), nan, inf, -inf, std::numeric_limits<T>::max()};
+    for (const T t : ts)
+        for (const T p : ps)
+            for (const T i : is) {
+                const cf::result<T> a = cf::reading(c, i, t, p), b = cf::reading(r, i, t, p);
+                CHECK(a.code == b.code);
+                CHECK((a.value == b.value || (a.value != a.value && b.value != b.value)));
+                CHECK(a.value == a.value);  // never NaN
+                CHECK(cf::span(c, t, p).value == cf::span(r, t, p).value);
+            }
 }
