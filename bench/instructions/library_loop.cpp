@@ -1,11 +1,17 @@
 // bench/instructions/library_loop.cpp - the library's C++ reading()
-// (compensation.hpp) over the generated garage tables, in the same minimal loop
-// as reading_loop.c, for the instruction count of scripts/count-instructions.sh.
+// (compensation.hpp) over the generated garage tables, and the full model for
+// the same readings (reading_from_current on the garage design read from
+// examples/garage_co.toml, zero current subtracted), in the same minimal loop as
+// reading_loop.c, for the instruction counts of scripts/count-instructions.sh.
 #include <cstddef>
 #include <cstdio>
 #include <cstdlib>
 
+#include <counterflux/ambient.hpp>
 #include <counterflux/compensation.hpp>
+#include <counterflux/signal.hpp>
+
+#include "sensor_file.hpp"
 
 #include "garage_co.h"
 
@@ -40,6 +46,23 @@ extern "C" __attribute__((noinline)) float loop_library(const counterflux::compe
     return acc + static_cast<float>(flags);
 }
 
+extern "C" __attribute__((noinline)) double loop_model(const counterflux::tool::sensor_file* f, int n) {
+    double acc = 0.0;
+    unsigned flags = 0u;
+    const auto& m = f->model;
+    for (int k = 0; k < n; ++k) {
+        const int j = k & 63;
+        const double t = static_cast<double>(in_t[j]);
+        const double i0 = counterflux::zero_current_A(f->zero->current_A, f->zero->per_K,
+                                                      m.reference_temperature_K, t).value;
+        const auto r = counterflux::reading_from_current(m, t, static_cast<double>(in_p[j]),
+                                                         static_cast<double>(in_s[j]) - i0);
+        acc += r.value;
+        flags |= static_cast<unsigned>(r.code);
+    }
+    return acc + static_cast<double>(flags);
+}
+
 int main(int argc, char** argv) {
     const int n = argc > 1 ? std::atoi(argv[1]) : 100000;
     for (int j = 0; j < 64; ++j) {
@@ -48,6 +71,8 @@ int main(int argc, char** argv) {
         in_s[j] = 1.0e-7f * static_cast<float>(j % 17);
     }
     const counterflux::compensation_ref<float> c = view();
-    std::printf("%g\n", static_cast<double>(loop_library(&c, n)));
+    const auto f = counterflux::tool::read_sensor_file(COUNTERFLUX_SOURCE_DIR "/examples/garage_co.toml");
+    if (!f.zero) return 1;
+    std::printf("%g %g\n", static_cast<double>(loop_library(&c, n)), loop_model(&f, n / 100 + 1));
     return 0;
 }
