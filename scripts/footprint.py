@@ -150,19 +150,21 @@ def main():
     size_of = lambda f, name: sum(s for n, k, s in f["syms"] if n == name)
     path_text = sum(s for n, k, s in m4["lib"] if k in "tTwW" and
                     (n.startswith("counterflux::") or n == "counterflux_example_library_reading"))
-    path_stack = m4["stacks"].get("counterflux::reading")
+    # Worst of the measured calls: inside the grid and on the edge path.
+    worst = lambda name: max((b for n, b in m4["stacks"].items() if n in (name, name + "(edge)")), default=None)
+    path_stack = worst("counterflux::reading")
     tables = size_of(m4, "counterflux_example_tables")
     float_header = sum(s for n, k, s in m4["syms"] if n.startswith("garage_co_") and k in "rRdD")
     q15_header = sum(s for n, k, s in m0["syms"] if n.startswith("garage_co_") and k in "rRdD")
     header_text = size_of(m4, "counterflux_example_table_reading")
-    header_stack = m4["stacks"].get("garage_co_reading")
+    header_stack = worst("garage_co_reading")
     # The goals hold for the firmware reading path, the generated header (its
     # reading wrapped in counterflux_example_table_reading; data static const),
     # and are also reported for the library's C++ reading() over compensation.hpp.
     goals = [
         ("Generated header: reading path (`garage_co_reading`: 2-D span, 1-D zero, law) .text on the M4F, "
          "without table data", f"{header_text} B", "<= 1024 B", 0 < header_text <= 1024),
-        ("Generated header: stack of `garage_co_reading` on the M4F (measured)",
+        ("Generated header: stack of `garage_co_reading` on the M4F (measured, worst of inside and edge inputs)",
          f"{header_stack} B" if header_stack is not None else "not measured", "<= 64 B",
          header_stack is not None and header_stack <= 64),
         ("Generated header: float span-correction table + zero table .rodata (garage_co: 15 x 9 and 15)",
@@ -173,7 +175,7 @@ def main():
          ", ".join(m0["soft"]) or "none", "none", not m0["soft"]),
         ("Library: `counterflux::reading` .text on the M4F, without table data",
          f"{path_text} B", "<= 1024 B", path_text <= 1024),
-        ("Library: stack of `counterflux::reading` on the M4F (measured)",
+        ("Library: stack of `counterflux::reading` on the M4F (measured, worst of inside and edge inputs)",
          f"{path_stack} B" if path_stack is not None else "not measured", "<= 64 B",
          path_stack is not None and path_stack <= 64),
         ("Library: `compensation<float, 15, 9>` (data, axes and gain) .rodata", f"{tables} B", "<= 620 B",

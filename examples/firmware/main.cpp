@@ -43,9 +43,8 @@ constexpr cf::compensation<float, nt, np> make_tables() noexcept {
 
 }  // namespace
 
-/// The library's compensation tables and their view (flash: constant-initialised).
+/// The library's compensation tables (flash: constant-initialised).
 constexpr cf::compensation<float, nt, np> counterflux_example_tables = make_tables();
-constexpr cf::compensation_ref<float> counterflux_example_ref = counterflux_example_tables.ref();
 
 struct reading_call {
     float signal_A, temperature_K, pressure_Pa;
@@ -56,7 +55,7 @@ struct reading_call {
 /// The library reading path: zero, span correction, law; mol/mol.
 extern "C" __attribute__((noinline)) void counterflux_example_library_reading(void* context) {
     auto* r = static_cast<reading_call*>(context);
-    const auto y = cf::reading(counterflux_example_ref, r->signal_A, r->temperature_K, r->pressure_Pa);
+    const auto y = cf::reading(counterflux_example_tables, r->signal_A, r->temperature_K, r->pressure_Pa);
     r->value = y.value;
     r->code = static_cast<unsigned>(y.code);
 }
@@ -110,6 +109,12 @@ int main() {
     board::write_unsigned(static_cast<std::uint32_t>(board::stack_used(counterflux_example_library_reading, &probe, 1024u)));
     board::write(" bytes\nstack garage_co_reading ");
     board::write_unsigned(static_cast<std::uint32_t>(board::stack_used(counterflux_example_table_reading, &probe, 1024u)));
+    // The edge paths: temperature below, pressure above the grid.
+    reading_call edge{500.0e-9f, 200.0f, 200000.0f, 0.0f, 0u};
+    board::write(" bytes\nstack counterflux::reading(edge) ");
+    board::write_unsigned(static_cast<std::uint32_t>(board::stack_used(counterflux_example_library_reading, &edge, 1024u)));
+    board::write(" bytes\nstack garage_co_reading(edge) ");
+    board::write_unsigned(static_cast<std::uint32_t>(board::stack_used(counterflux_example_table_reading, &edge, 1024u)));
     board::write(" bytes\n");
     return sane ? 0 : 1;
 }

@@ -296,11 +296,23 @@ constexpr result<T> zero_current(const compensation<T, NT, NP>& c, T temperature
 
 namespace detail {
 
-/// The full reading of a compensation object (edges, flags), out of line: its view's kernel.
+/// The full reading of a (linear) compensation object, edges and flags, out of
+/// line: read_view's steps for a view without curvature, with the sizes constant
+/// and no curvature code linked in, so the same result bit for bit.
 template <class T, std::size_t NT, std::size_t NP>
 [[gnu::noinline]] constexpr result<T> read_fixed(const compensation<T, NT, NP>& c, T signal_A, T temperature_K,
                                                  T pressure_Pa) noexcept {
-    return read_view(c.ref(), signal_A, temperature_K, pressure_Pa);
+    // The axes' scalars as ref() gives them (step() divides: edge path only).
+    const auto& a0 = c.correction.axis0;
+    const auto& a1 = c.correction.axis1;
+    const axis_position<T> pt = locate_clamped_scalar(temperature_K, a0.origin, a0.step(), a0.inv_step,
+                                                      std::ptrdiff_t(NT) - 1, status::first_axis_below,
+                                                      status::first_axis_above);
+    const axis_position<T> pp = locate_clamped_scalar(pressure_Pa, a1.origin, a1.step(), a1.inv_step,
+                                                      std::ptrdiff_t(NP) - 1, status::second_axis_below,
+                                                      status::second_axis_above);
+    const T w = linear_at(c.correction.values.data(), c.zero.data(), NP, c.gain, pt, pp, signal_A);
+    return finished(w, signal_A, pt.code | pp.code);
 }
 
 }  // namespace detail

@@ -183,12 +183,20 @@ constexpr std::ptrdiff_t cells_of(const uniform_axis<T>& a) noexcept {
 
 /// locate() without its fast path, for the kernels' edge paths (one copy serves
 /// every axis): the same cell, fraction and flags for every x, branch-free.
+/// locate_clamped on an axis given by its scalars (in registers, nothing on the
+/// stack): the one out-of-line copy every edge path calls.
 template <class T>
-[[gnu::noinline]] constexpr axis_position<T> locate_clamped(const uniform_axis<T>& a, T x, status below_flag,
-                                                            status above_flag) noexcept {
-    const std::ptrdiff_t cells = cells_of(a);
+[[gnu::noinline]] constexpr axis_position<T> locate_clamped_scalar(T x, T origin, T step, T inv_step,
+                                                                   std::ptrdiff_t cells, status below_flag,
+                                                                   status above_flag) noexcept {
     const T top = static_cast<T>(cells);
-    return locate_edge(x, position(a, x), top, a.origin + top * a.step, cells, below_flag, above_flag, a.origin);
+    return locate_edge(x, (x - origin) * inv_step, top, origin + top * step, cells, below_flag, above_flag, origin);
+}
+
+template <class T>
+[[gnu::always_inline]] constexpr axis_position<T> locate_clamped(const uniform_axis<T>& a, T x, status below_flag,
+                                                                 status above_flag) noexcept {
+    return locate_clamped_scalar(x, a.origin, a.step, a.inv_step, cells_of(a), below_flag, above_flag);
 }
 
 }  // namespace detail
