@@ -216,12 +216,14 @@ constexpr result<T> steady_resistance_s_m3(const transient_chain<T, Parts>& c) n
 template <class T>
 inline constexpr T layer_t90_per_l2_over_d = T(0.30352);
 
-/// The rise time t90 that part i alone would give, s. A volume, or a layer's
-/// capacity K A L, fills first order through the steady conductances of the
-/// rest of the chain towards the sample (G_up) and towards the sink (G_down),
-/// every other capacity neglected: ln(10) C / (G_up + G_down). A layer's own
-/// diffusion time is 0.30352 L^2/D (Crank's t90; the whole of it for a layer
-/// between the sample and a perfect sink); it gives the larger of the two.
+/// The rise time t90 that part i alone would give in its place in the
+/// chain, s, every other capacity neglected. A volume V fills first order
+/// through the steady conductances of the rest of the chain towards the sample
+/// (G_up) and towards the sink (G_down): ln(10) V / (G_up + G_down), 0 when
+/// either side has no resistance (the sample, or a perfect sink, at the
+/// volume). A layer gives its own diffusion time 0.30352 L^2/D (Crank's t90,
+/// exact between the sample and a perfect sink) plus the delay the resistances
+/// around it add to filling its capacity K A L (lumped at its middle).
 /// out_of_domain (value 0) for an invalid chain or index; a lumped volume
 /// dropped at a perfect sink gives 0 with status ok.
 template <class T, std::size_t Parts>
@@ -241,16 +243,22 @@ inline result<T> part_t90_s(const transient_chain<T, Parts>& c, std::size_t i) n
     T down = detail::sink_resistance(c);
     for (std::size_t j = i + 1; j < c.count; ++j)
         if (c.parts[j].kind == chain_part_kind::layer) down += detail::layer_resistance(c.parts[j]);
-    const T g = (up > T(0) ? T(1) / up : T(0)) + (down > T(0) ? T(1) / down : T(0));
+    // A side with no resistance (the sample or a perfect sink right at the
+    // part) fills or empties it at once: nothing lumped to wait for.
+    const bool both_sides = up > T(0) && down > T(0);
+    const T g = both_sides ? T(1) / up + T(1) / down : T(0);
     const T ln10 = T(2.302585092994046);
     if (p.kind == chain_part_kind::layer) {
+        // Its own diffusion time, plus what the resistances around it add to
+        // filling its capacity C = K A L, seen from its middle: ln(10) C times
+        // 1/(1/(R_up + R/2) + 1/(R_down + R/2)) less the same with R_up = R_down = 0 (R/4).
         const T own = layer_t90_per_l2_over_d<T> * p.length_m * p.length_m / p.diffusivity_m2_s;
-        // A layer touching the sample and the sink on both faces has G = +inf: its own time alone.
-        if (!(up > T(0)) && !(down > T(0))) return detail::checked(own);
-        const T lumped = ln10 * p.partition * p.area_m2 * p.length_m / g;
-        return detail::checked(lumped > own ? lumped : own);
+        const T r = detail::layer_resistance(p);
+        const T in_place = T(1) / (T(1) / (up + r / T(2)) + T(1) / (down + r / T(2)));
+        const T extra = ln10 * p.partition * p.area_m2 * p.length_m * (in_place - r / T(4));
+        return detail::checked(extra > T(0) ? own + extra : own);
     }
-    if (!(g > T(0))) return {T(0), status::out_of_domain};
+    if (!both_sides) return {T(0), status::ok};
     return detail::checked(ln10 * p.volume_m3 / g);
 }
 
