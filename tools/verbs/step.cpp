@@ -241,9 +241,15 @@ int run_step(const step_options& o, std::ostream& out) {
     if (f.response && f.response->duration_s) {
         curve_duration = *f.response->duration_s;
         if (curve_duration <= duration) {
-            curve.erase(std::remove_if(curve.begin(), curve.end(),
-                                       [&](const sample& x) { return x.t > curve_duration * (1.0 + 1e-12); }),
-                        curve.end());
+            // Cut at the duration, the last row interpolated to it.
+            const auto past = std::find_if(curve.begin(), curve.end(),
+                                           [&](const sample& x) { return x.t >= curve_duration; });
+            if (past != curve.end() && past != curve.begin()) {
+                const sample a = *(past - 1), b = *past;
+                const double w = (curve_duration - a.t) / (b.t - a.t);
+                curve.erase(past, curve.end());
+                curve.push_back(sample{curve_duration, a.rise + w * (b.rise - a.rise), a.fall + w * (b.fall - a.fall)});
+            }
         } else {
             const double dt = duration / static_cast<double>(times.steps);
             const double steps = std::min(std::ceil(curve_duration / dt), max_curve_steps);
