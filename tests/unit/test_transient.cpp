@@ -13,6 +13,12 @@
 //     series above);
 //   - the steady state against the library's own dilute resistance
 //     (series.hpp), and the discrete mass balance to 1e-9 in double.
+//
+// counterflux-test: host-only
+// (the solvers here hold 100 to 800 nodes, 10 to 90 KiB each, more than the MCU
+// images' stacks (64 KiB on the M4F, 4 KiB on the M0+), and the recorders use the
+// heap; the float instantiation is cross-compiled for the M4F by
+// tests/header_checks/instantiate_api.inc and checked there for double helpers.)
 #include <doctest/doctest.h>
 
 #include <cmath>
