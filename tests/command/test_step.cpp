@@ -294,3 +294,22 @@ TEST_CASE("step: bad input exits 2 with FILE:LINE:COLUMN, a failed write leaves 
     CHECK_FALSE(fs::exists(missing));
     CHECK(fs::is_empty(dir));
 }
+
+TEST_CASE("step: every example settles its t90 to 0.1 % and keeps its mass balance") {
+    int seen = 0;
+    for (const auto& e : fs::directory_iterator(COUNTERFLUX_SOURCE_DIR "/examples")) {
+        if (e.path().extension() != ".toml") continue;
+        CAPTURE(e.path().string());
+        const nlohmann::json j = run_json({"step", e.path().string(), "--json"});
+        const double t90 = j["t90_s"];
+        CHECK(t90 > 0.0);
+        CHECK(j["t90_error_s"].get<double>() <= 1e-3 * t90);
+        CHECK(j["max_mass_balance_error"].get<double>() < 1e-9);
+        // The parts' shares of their summed times add up to 1.
+        double share = 0.0;
+        for (const auto& p : j["parts"]) share += p["share"].get<double>();
+        CHECK(share == doctest::Approx(1.0).epsilon(1e-12));
+        ++seen;
+    }
+    CHECK(seen >= 3);
+}
