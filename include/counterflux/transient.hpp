@@ -21,7 +21,7 @@
 // Numer. Math. 43, 1984), which damps the stiff modes the discontinuity excites
 // and keeps second order. The tridiagonal systems are solved by the Thomas
 // algorithm, factorised once per run. No allocation: all storage is in the
-// solver object (a few arrays of Cells x Parts values).
+// solver object (eleven arrays of Cells x Parts values).
 //
 // The rise (step from zero outside to 1) and the fall (from the steady state,
 // outside to 0) run side by side on the same matrices. Times t10, t50, t90 and
@@ -341,7 +341,7 @@ struct crossing {
 
 /// Discretised step-response solver of a chain with Cells cells in every
 /// layer (each volume is one node). All storage is inside the object (about
-/// 10 Cells Parts values of T): give it static storage on a small stack.
+/// 11 Cells Parts values of T): give it static storage on a small stack.
 template <class T, std::size_t Cells, std::size_t Parts>
 class step_solver {
     static_assert(Cells >= 1, "a layer needs at least one cell");
@@ -357,32 +357,30 @@ public:
         status s = validate(c);
         if (s != status::ok) return s;
         const std::size_t n_parts = detail::active_parts(c);
-        // Each node: capacity and the resistances of its left and right halves.
-        std::array<T, max_nodes> left{}, right{};
+        // Node by node: its capacity, and the conductance to the node before it
+        // through the right half of that node and the left half of this one
+        // (a cell's half is h / (2 D K A), a volume has none).
+        T previous_right = T(0);
+        T first_left = T(0);
         for (std::size_t i = 0; i < n_parts; ++i) {
             const chain_part<T>& p = c.parts[i];
-            if (p.kind == chain_part_kind::layer) {
-                const T h = p.length_m / static_cast<T>(Cells);
-                const T half = h / (T(2) * p.diffusivity_m2_s * p.partition * p.area_m2);
-                const T cap = p.partition * p.area_m2 * h;
-                for (std::size_t k = 0; k < Cells; ++k) {
-                    capacity_[nodes_] = cap;
-                    left[nodes_] = half;
-                    right[nodes_] = half;
-                    ++nodes_;
-                }
-            } else {
-                capacity_[nodes_] = p.volume_m3;
-                left[nodes_] = T(0);
-                right[nodes_] = T(0);
+            const bool layer = p.kind == chain_part_kind::layer;
+            const std::size_t count = layer ? Cells : 1;
+            const T h = layer ? p.length_m / static_cast<T>(Cells) : T(0);
+            const T half = layer ? h / (T(2) * p.diffusivity_m2_s * p.partition * p.area_m2) : T(0);
+            const T cap = layer ? p.partition * p.area_m2 * h : p.volume_m3;
+            for (std::size_t k = 0; k < count; ++k) {
+                capacity_[nodes_] = cap;
+                if (nodes_ == 0) first_left = half;
+                else g_[nodes_ - 1] = T(1) / (previous_right + half);
+                previous_right = half;
                 ++nodes_;
             }
         }
         const chain_part<T>& first = c.parts[0];
-        const T r_src = left[0] + (first.kind == chain_part_kind::flushed_volume ? T(1) / first.flow_m3_s : T(0));
+        const T r_src = first_left + (first.kind == chain_part_kind::flushed_volume ? T(1) / first.flow_m3_s : T(0));
         source_g_ = T(1) / r_src;
-        for (std::size_t i = 0; i + 1 < nodes_; ++i) g_[i] = T(1) / (right[i] + left[i + 1]);
-        sink_g_ = T(1) / (right[nodes_ - 1] + detail::sink_resistance(c));
+        sink_g_ = T(1) / (previous_right + detail::sink_resistance(c));
         bool ok = detail::finite(source_g_) && detail::finite(sink_g_) && source_g_ > T(0) && sink_g_ > T(0);
         for (std::size_t i = 0; i < nodes_; ++i) ok = ok && detail::finite(capacity_[i]) && capacity_[i] > T(0);
         for (std::size_t i = 0; i + 1 < nodes_; ++i) ok = ok && detail::finite(g_[i]) && g_[i] > T(0);
@@ -397,7 +395,8 @@ public:
     constexpr std::size_t nodes() const noexcept { return nodes_; }
 
     /// Simulates the rise and the fall over duration_s in steps equal steps,
-    /// calling observe(step_sample) after each. Status: the flags of setup;
+    /// calling observe(step_sample) after each (and once at t = 0); observe
+    /// must not throw. Status: the flags of setup;
     /// out_of_domain for a duration that is not finite and positive or steps
     /// outside 1..step_max_steps; above_range when a rise or fall time was not
     /// reached by the end (that time is then the duration); not_finite if the
@@ -438,6 +437,7 @@ public:
             f90{T(0.1), false, false, T(0)};
         T t_prev = T(0), y_rise_prev = T(0), y_fall_prev = T(1);
         T worst = T(0);
+        bool lost = false;
         observe(step_sample<T>{T(0), T(0), T(1), T(0), T(0)});
         for (std::size_t k = 1; k <= steps; ++k) {
             if (k == 1) {  // damped start: four backward-Euler quarter steps
@@ -463,7 +463,8 @@ public:
                 const T ef = std::fabs(fall_in - (fall_held - fall_held0) - fall_out) / fall_scale;
                 if (ef > e) e = ef;
             }
-            if (!(e <= worst)) worst = e;  // NaN sticks
+            if (e != e) lost = true;  // NaN: reported as not_finite at the end
+            else if (e > worst) worst = e;
             r10.see(t_prev, y_rise_prev, t, y_rise);
             r50.see(t_prev, y_rise_prev, t, y_rise);
             r90.see(t_prev, y_rise_prev, t, y_rise);
@@ -490,7 +491,7 @@ public:
         out.final_fall = y_fall_prev;
         out.max_mass_balance_error = worst;
         out.steps = steps;
-        if (!(detail::finite(worst) && detail::finite(y_rise_prev) && detail::finite(y_fall_prev))) {
+        if (lost || !(detail::finite(worst) && detail::finite(y_rise_prev) && detail::finite(y_fall_prev))) {
             const std::size_t nn = nodes_;
             out = step_times<T>{T(0), T(0), T(0), T(0), T(0), T(0), T(0), T(0), T(0), T(0), T(0), nn, steps};
             return {out, status::not_finite};
@@ -502,6 +503,7 @@ public:
     /// G^-1 C (the decay time of the last mode of a step response), by inverse
     /// iteration (at most iterations solves; not_converged if the Rayleigh
     /// quotient has not settled to 1e-10 relative (1e-5 in float) by then).
+    /// Uses the state arrays as scratch: call it after setup, not during a run.
     result<T> slowest_time_constant_s(int iterations = 500) noexcept {
         if (nodes_ == 0) return {T(0), status::out_of_domain};
         const std::size_t n = nodes_;
@@ -614,7 +616,7 @@ private:
 /// Step response of chain c with Cells cells per layer over duration_s in
 /// steps time steps, calling observe(step_sample) after every step. Status as
 /// step_solver::run. The solver lives in this function's frame (about
-/// 15 Cells Parts values of T).
+/// 11 Cells Parts values of T).
 template <class T, std::size_t Cells, std::size_t Parts, class Observer = no_observer>
 inline result<step_times<T>> step_response(const transient_chain<T, Parts>& c, T duration_s, std::size_t steps,
                                            Observer&& observe = Observer{}) noexcept {
