@@ -13,7 +13,7 @@
 // across every interface, the chain is a ladder of capacities (K A h per cell,
 // V per volume, mol per mol/m3) and conductances (D K A / h between cell
 // centres, harmonic at interfaces: the finite-volume scheme of Patankar,
-// Numerical Heat Transfer and Fluid Flow, 1980, sec. 4.2-4.3, which is exact in
+// Numerical Heat Transfer and Fluid Flow, 1980, ch. 4 (sections from memory), exact in
 // the steady state). Each layer has Cells cells (a compile-time count); every
 // volume is one node. Time stepping: Crank-Nicolson (Crank & Nicolson, Proc.
 // Camb. Phil. Soc. 43, 1947) with a damped start: the first step after the

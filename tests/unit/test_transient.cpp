@@ -6,7 +6,7 @@
 //     t10, t50, t90 = 0.06611, 0.13879, 0.30352 L^2/D (values of the design
 //     contract, physics.md sec. 6; the series itself is summed here as well);
 //   - the time lag L^2/(6 D) of the permeated amount (Daynes, Proc. R. Soc. A
-//     97, 286, 1920; Crank eq. 4.24a);
+//     97, 286, 1920; Crank eq. 4.24a, the equation number from memory);
 //   - a flushed volume: first order, tau = V/Q; a lumped volume behind a
 //     conductance G D: first order, tau = V/(G D) (a single well-mixed tank);
 //   - the slowest decay rate of one layer, pi^2 D / L^2 (the n = 1 term of the
@@ -126,7 +126,7 @@ TEST_CASE("transient: t90 in float (the Cortex-M4F type) against Crank's value")
 
 TEST_CASE("transient: the time lag L^2/(6 D) of a membrane from the integrated flux (Daynes 1920)") {
     // A membrane with partition coefficient 3: the lag does not depend on K
-    // (Crank 1975 eq. 4.24a). D = 1e-10 m2/s, L = 25 um: L^2/D = 6.25 s.
+    // (Crank 1975 eq. 4.24a, number from memory). D = 1e-10 m2/s, L = 25 um: L^2/D = 6.25 s.
     const double d = 1e-10, l = 25e-6, scale = l * l / d;
     const auto c = single_layer(d, 1e-4, l, 3.0);
     recorder<double> rec;
