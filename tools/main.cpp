@@ -76,6 +76,7 @@ int run(int argc, char** argv) {
         add_design_verb(app, std::cout),
         add_table_verb(app, std::cout),
         add_inspect_verb(app, std::cout),
+        add_step_verb(app, std::cout),
     };
 
     try {

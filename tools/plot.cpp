@@ -182,7 +182,7 @@ void draw_panel(const plot_panel& p, const prepared_panel& d, const std::string&
     pllab(plain(p.x_label).c_str(), plain(p.y_label).c_str(), plain(p.title).c_str());
     if (first && !title.empty()) {
         plschr(0.0, 1.1);
-        plmtex("t", 3.2, 0.5, 0.5, plain(title).c_str());
+        plmtex("t", 3.6, 0.5, 0.5, plain(title).c_str());
         plschr(0.0, 0.9);
     }
     for (std::size_t i = 0; i < d.x.size(); ++i) {
@@ -191,6 +191,19 @@ void draw_panel(const plot_panel& p, const prepared_panel& d, const std::string&
         plwidth(2.0);
         plline(static_cast<PLINT>(d.x[i].size()), d.x[i].data(), d.y[i].data());
     }
+    // The legend goes in the right-hand corner away from the curves: the
+    // bottom when they end high (a rise), the top when they end low (a fall);
+    // the marker labels in the other half.
+    double sum = 0.0;
+    std::size_t count = 0;
+    const double x_right = d.xr.lo + 0.6 * (d.xr.hi - d.xr.lo);
+    for (std::size_t i = 0; i < d.x.size(); ++i)
+        for (std::size_t k = 0; k < d.x[i].size(); ++k)
+            if (d.x[i][k] >= x_right) {
+                sum += d.y[i][k];
+                ++count;
+            }
+    const bool high = count == 0 || sum / static_cast<double>(count) > 0.5 * (d.yr.lo + d.yr.hi);
     plwidth(1.0);
     for (std::size_t i = 0; i < p.markers.size(); ++i) {
         const plot_marker& m = p.markers[i];
@@ -200,11 +213,13 @@ void draw_panel(const plot_panel& p, const prepared_panel& d, const std::string&
         pllsty(2);
         plline(2, xs, ys);
         pllsty(1);
-        // Labels stagger downwards so that close markers stay legible.
-        const double y = d.yr.hi - (0.08 + 0.07 * static_cast<double>(i % 4)) * (d.yr.hi - d.yr.lo);
+        // Labels stagger so that close markers stay legible.
+        const double step = 0.07 * static_cast<double>(i % 4);
+        const double y = high ? d.yr.hi - (0.08 + step) * (d.yr.hi - d.yr.lo)
+                              : d.yr.lo + (0.30 - step) * (d.yr.hi - d.yr.lo);
         plptex(m.x, y, 1.0, 0.0, -0.05, plain(m.label).c_str());
     }
-    // Legend of the labelled series, inside the top right corner.
+    // Legend of the labelled series, in the corner chosen above.
     std::vector<std::string> texts;
     std::vector<PLINT> opts, text_colours, line_colours, line_styles;
     std::vector<PLFLT> line_widths;
@@ -223,7 +238,8 @@ void draw_panel(const plot_panel& p, const prepared_panel& d, const std::string&
     const PLINT n = static_cast<PLINT>(texts.size());
     PLFLT width = 0.0, height = 0.0;
     plcol0(1);
-    pllegend(&width, &height, PL_LEGEND_BACKGROUND | PL_LEGEND_BOUNDING_BOX, PL_POSITION_RIGHT | PL_POSITION_BOTTOM,
+    pllegend(&width, &height, PL_LEGEND_BACKGROUND | PL_LEGEND_BOUNDING_BOX,
+             PL_POSITION_RIGHT | (high ? PL_POSITION_BOTTOM : PL_POSITION_TOP),
              0.02, 0.04, 0.08, 0, 1, 1, 0, 0, n, opts.data(), 1.0, 0.8, 2.0, 0.0, text_colours.data(),
              text_ptrs.data(), nullptr, nullptr, nullptr, nullptr, line_colours.data(), line_styles.data(),
              line_widths.data(), nullptr, nullptr, nullptr, nullptr);
@@ -236,6 +252,22 @@ std::string render(const std::string& title, const std::vector<plot_panel>& pane
 
     static std::mutex plplot_mutex;  // PLplot's stream table is global
     const std::lock_guard<std::mutex> lock(plplot_mutex);
+    // Without its svg driver PLplot would ask on standard input for another
+    // device and then end the process: look for the driver first.
+    {
+        constexpr int capacity = 128;
+        const char* menus[capacity] = {};
+        const char* names[capacity] = {};
+        const char** menu_list = menus;
+        const char** name_list = names;
+        int count = capacity;
+        plgDevs(&menu_list, &name_list, &count);
+        bool found = false;
+        for (int i = 0; i < count && i < capacity; ++i)
+            found = found || (names[i] != nullptr && std::string(names[i]) == "svg");
+        if (!found)
+            throw run_error("PLplot has no svg driver (Debian: install the PLplot drivers package with svg.so)");
+    }
     temporary_file file;
     abort_messages().clear();
 

@@ -462,7 +462,7 @@ const std::vector<std::string> capillary_keys = {"type", "diameter", "length", "
 const std::vector<std::string> porous_keys = {"type", "thickness", "area", "porosity", "tortuosity", "pore_diameter",
                                               "knudsen"};
 const std::vector<std::string> membrane_keys = {"type", "thickness", "area", "permeability", "activation_energy",
-                                                "diffusivity"};
+                                                "diffusivity", "partition"};
 
 // Keys of the other two kinds, each with the kind it belongs to.
 std::vector<std::pair<std::string, std::string>> foreign_keys(const std::string& type) {
@@ -572,10 +572,29 @@ void read_barrier(reader& r, const toml::table& t, std::size_t index, sensor_fil
         else ok &= !t.contains("activation_energy");
         if (diffusivity) ok &= pos(diffusivity, "diffusivity");
         else ok &= !t.contains("diffusivity");
+        // The step response needs the film's diffusivity D or its partition
+        // coefficient K = c_film / c_gas: the permeability fixes the other
+        // (Pi = D S, K = S R T), so a file gives one of them, not both.
+        const auto partition = q("partition", kind::dimensionless, false);
+        if (partition) {
+            ok &= r.require_that(partition->value >= 1e-6 && partition->value <= 1e6, *partition,
+                                 prefix + "partition", "expected 1e-06 <= partition <= 1e+06 (c in the film / c in the gas)");
+            if (diffusivity) {
+                r.error(partition->place, in_quotes(prefix + "partition") +
+                                              " and 'diffusivity' are both given; expected one of them: the "
+                                              "permeability fixes the other (partition = permeability R T / diffusivity)");
+                ok = false;
+            }
+        } else ok &= !t.contains("partition");
+        double film_diffusivity = diffusivity ? diffusivity->value : 0.0;
+        // From K at the reference temperature: D = Pi_ref R T_ref / K.
+        if (ok && partition)
+            film_diffusivity = permeability->value * counterflux::gas_constant_J_mol_K<double> *
+                               out.model.reference_temperature_K / partition->value;
         if (ok)
             b = counterflux::make_membrane<double>(thickness->value, area->value, permeability->value,
                                                    energy ? energy->value : 0.0, out.model.reference_temperature_K,
-                                                   diffusivity ? diffusivity->value : 0.0);
+                                                   film_diffusivity);
     }
     if (!ok) return;
     if (counterflux::validate(b) != counterflux::status::ok) {
@@ -677,7 +696,8 @@ void read_zero(reader& r, const toml::table& t, sensor_file& out, const source_p
 
 void read_response(reader& r, const toml::table& t, sensor_file& out, const source_place& header) {
     const std::string where = "[response]";
-    r.check_keys(t, where, {"front_volume", "sample_flow", "cavity_volume", "electrode_rate", "duration"});
+    r.check_keys(t, where,
+                 {"front_volume", "sample_flow", "cavity_volume", "electrode_rate", "electrode_area", "duration"});
     response_spec spec;
     spec.place = header;
     spec.electrode_rate_m_s = std::numeric_limits<double>::infinity();
@@ -697,6 +717,7 @@ void read_response(reader& r, const toml::table& t, sensor_file& out, const sour
     infinite.allow_infinity = true;
     opt("electrode_rate", kind::velocity, rate, infinite);
     if (rate) spec.electrode_rate_m_s = *rate;
+    opt("electrode_area", kind::area, spec.electrode_area_m2);
     opt("duration", kind::time, spec.duration_s);
     if (ok && spec.front_volume_m3.has_value() != spec.sample_flow_m3_s.has_value()) {
         r.error(header, spec.front_volume_m3 ? "'response.front_volume' needs 'sample_flow' in [response]"

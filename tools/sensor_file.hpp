@@ -59,6 +59,7 @@ struct response_spec {
     std::optional<double> sample_flow_m3_s;    ///< sample flow through it
     std::optional<double> cavity_volume_m3;    ///< gas space between barrier and electrode
     double electrode_rate_m_s = 0.0;           ///< first-order sink rate; +inf = perfect sink
+    std::optional<double> electrode_area_m2;   ///< area the rate acts on (default: the innermost element's)
     std::optional<double> duration_s;          ///< simulated time
     source_place place;                        ///< the [response] header
 };

@@ -16,6 +16,7 @@
 #include "signal.hpp"
 #include "status.hpp"
 #include "table.hpp"
+#include "transient.hpp"
 #include "units.hpp"
 
 #endif  // COUNTERFLUX_COUNTERFLUX_HPP

@@ -8,9 +8,21 @@
 #include <string>
 #include <vector>
 
+#include <cstdio>
+#include <tuple>
+#include <utility>
+
+#include <sys/wait.h>
+
+#include <nlohmann/json.hpp>
+
+#include <counterflux/transient.hpp>
+
 #include "atomic_write.hpp"
+#include "command_runner.hpp"
 #include "errors.hpp"
 #include "plot.hpp"
+#include "sensor_file.hpp"
 
 namespace {
 
@@ -99,4 +111,205 @@ TEST_CASE("plot: a failed write leaves no file, bad data is refused") {
     // And the module still works after the failures.
     write_svg_plot(dir / "good.svg", "t", two_panels());
     CHECK(well_formed_svg(slurp(dir / "good.svg")));
+}
+
+// ---- the step verb ---------------------------------------------------------------
+
+namespace {
+
+using counterflux_command_test::run;
+using counterflux_command_test::run_json;
+using counterflux_command_test::shell_quote;
+
+const std::string step_example = COUNTERFLUX_SOURCE_DIR "/examples/pumped_h2s_membrane.toml";
+
+// Exit status and standard error (standard output discarded).
+std::pair<int, std::string> run_stderr(const std::vector<std::string>& args) {
+    std::string line = shell_quote(counterflux_command_test::command);
+    for (const auto& a : args) line += " " + shell_quote(a);
+    line += " 2>&1 >/dev/null";
+    FILE* pipe = ::popen(line.c_str(), "r");
+    REQUIRE(pipe != nullptr);
+    std::string err;
+    char buffer[4096];
+    std::size_t n = 0;
+    while ((n = std::fread(buffer, 1, sizeof buffer, pipe)) > 0) err.append(buffer, n);
+    const int raw = ::pclose(pipe);
+    return {WIFEXITED(raw) ? WEXITSTATUS(raw) : -1, err};
+}
+
+std::vector<std::string> lines_of(const std::string& text) {
+    std::vector<std::string> out;
+    std::size_t start = 0;
+    while (start < text.size()) {
+        const std::size_t end = text.find('\n', start);
+        out.push_back(text.substr(start, end == std::string::npos ? std::string::npos : end - start));
+        if (end == std::string::npos) break;
+        start = end + 1;
+    }
+    return out;
+}
+
+// The library's own run on the grid the command reports (no physics in the tool).
+template <std::size_t Cells>
+counterflux::result<counterflux::step_times<double>> library_run(const counterflux::tool::sensor_file& f, double duration,
+                                                                 std::size_t steps) {
+    const auto& r = *f.response;
+    const counterflux::response_setup<double> setup{r.front_volume_m3.value_or(0.0), r.sample_flow_m3_s.value_or(0.0),
+                                                    r.cavity_volume_m3.value_or(0.0), r.electrode_rate_m_s,
+                                                    r.electrode_area_m2.value_or(0.0)};
+    const auto chain = counterflux::chain_from_sensor(f.model, setup, f.model.reference_temperature_K,
+                                                      f.model.reference_pressure_Pa);
+    REQUIRE(chain.ok());
+    return counterflux::step_response_estimate<double, Cells, counterflux::tool::max_elements + 2>(chain.value, duration,
+                                                                                                    steps);
+}
+
+}  // namespace
+
+TEST_CASE("step: the example's JSON keys, what sets t90, and the library's numbers") {
+    const nlohmann::json j = run_json({"step", step_example, "--json"});
+    for (const char* key : {"t10_s", "t50_s", "t90_s", "fall_t90_s", "t90_error_s", "duration_s", "steps",
+                            "cells_per_layer", "slowest_time_constant_s", "max_mass_balance_error"}) {
+        CAPTURE(key);
+        REQUIRE(j.contains(key));
+        REQUIRE(j[key].is_number());
+    }
+    const double t10 = j["t10_s"], t50 = j["t50_s"], t90 = j["t90_s"], fall = j["fall_t90_s"];
+    CHECK(0.0 < t10);
+    CHECK(t10 < t50);
+    CHECK(t50 < t90);
+    // A linear chain falls as it rises (superposition).
+    CHECK(fall == doctest::Approx(t90).epsilon(1e-6));
+    // Refined until t90 settles to 0.1 %.
+    CHECK(j["t90_error_s"].get<double>() <= 1e-3 * t90);
+    CHECK(j["max_mass_balance_error"].get<double>() < 1e-9);
+    // The housing's front volume and the membrane set t90, not the capillary.
+    const auto& set_by = j["t90_set_by"];
+    REQUIRE(set_by.is_array());
+    const auto in_set = [&](const char* key) {
+        for (const auto& k : set_by)
+            if (k == key) return true;
+        return false;
+    };
+    CHECK(in_set("front_volume"));
+    CHECK(in_set("barrier_1"));
+    CHECK_FALSE(in_set("barrier_2"));
+    CHECK(j["dominant_part"] != "barrier_2");
+
+    // The same numbers from the library on the grid the command chose.
+    const auto f = counterflux::tool::read_sensor_file(step_example);
+    const std::size_t cells = j["cells_per_layer"], steps = j["steps"];
+    const double duration = j["duration_s"];
+    counterflux::result<counterflux::step_times<double>> lib{};
+    if (cells == 16) lib = library_run<16>(f, duration, steps);
+    else if (cells == 32) lib = library_run<32>(f, duration, steps);
+    else if (cells == 64) lib = library_run<64>(f, duration, steps);
+    else FAIL("unexpected grid of " << cells << " cells per layer");
+    REQUIRE(lib.ok());
+    CHECK(lib.value.t90_s == doctest::Approx(t90).epsilon(1e-14));
+    CHECK(lib.value.t10_s == doctest::Approx(t10).epsilon(1e-14));
+    CHECK(lib.value.t90_error_s == doctest::Approx(j["t90_error_s"].get<double>()).epsilon(1e-12));
+}
+
+TEST_CASE("step: the report names what sets t90") {
+    const auto r = run({"step", step_example});
+    REQUIRE(r.status == 0);
+    CHECK(r.out.find("t90 is set by [[barrier]] #1 membrane and front volume") != std::string::npos);
+    CHECK(r.out.find("not by [[barrier]] #2 capillary") != std::string::npos);
+    CHECK(r.out.find("t90 error estimate") != std::string::npos);
+}
+
+TEST_CASE("step: a lone capillary gives Crank's t90 = 0.30352 L^2/D end to end") {
+    // Crank, The Mathematics of Diffusion, 2nd ed. (1975), ch. 4, via
+    // physics.md sec. 6: t90 = 0.30352 L^2/D for a layer between a step and a
+    // perfect sink. No end correction and no Knudsen term: L is the bore and D
+    // the free-gas D_AB the `diffusivity` verb prints (Fuller, at the reference).
+    const fs::path dir = scratch("step_crank");
+    const fs::path file = dir / "lone.toml";
+    std::ofstream(file) << "[sensor]\nsymbol = \"lone\"\ntarget = \"CO\"\nbackground = \"N2\"\nelectrons = 2\n"
+                           "flux_ratio = \"equimolar\"\nfull_scale = \"1000 ppm\"\n\n[reference]\n"
+                           "temperature = \"298.15 K\"\npressure = \"101325 Pa\"\n\n[diffusivity]\nmethod = \"fuller\"\n\n"
+                           "[[barrier]]\ntype = \"capillary\"\ndiameter = \"1 mm\"\nlength = \"3 mm\"\n"
+                           "end_correction = false\nknudsen = false\n";
+    const nlohmann::json d = run_json({"diffusivity", "CO", "N2", "--temperature", "298.15 K", "--pressure",
+                                       "101325 Pa", "--json"});
+    const double dab = d["diffusivity_m2_s"];
+    const nlohmann::json j = run_json({"step", file.string(), "--json"});
+    const double scale = 3e-3 * 3e-3 / dab;
+    CHECK(j["t90_s"].get<double>() / scale == doctest::Approx(0.30352).epsilon(2e-3));
+    CHECK(j["t50_s"].get<double>() / scale == doctest::Approx(0.13879).epsilon(2e-3));
+    CHECK(j["t10_s"].get<double>() / scale == doctest::Approx(0.06611).epsilon(2e-3));
+}
+
+TEST_CASE("step: --csv writes the curve with its header and row count, --svg the plot") {
+    const fs::path dir = scratch("step_files");
+    const fs::path csv = dir / "curve.csv", svg = dir / "plot.svg";
+    const nlohmann::json j = run_json({"step", step_example, "--json", "--csv", csv.string(), "--svg", svg.string()});
+    const auto rows = lines_of(slurp(csv));
+    REQUIRE(rows.size() >= 3);
+    CHECK(rows[0] == "time[s],rise[1],fall[1]");
+    CHECK(rows.size() - 1 == j["csv_rows"].get<std::size_t>());
+    CHECK(rows[1] == "0,0,1");
+    // The curve spans the file's duration, 60 s; rise and fall stay within [0, 1].
+    double last_t = 0.0;
+    for (std::size_t i = 1; i < rows.size(); ++i) {
+        double t = 0, rise = 0, fall = 0;
+        REQUIRE(std::sscanf(rows[i].c_str(), "%lf,%lf,%lf", &t, &rise, &fall) == 3);
+        CHECK(t >= last_t);
+        CHECK(rise >= -1e-9);
+        CHECK(rise <= 1.0 + 1e-9);
+        CHECK(fall >= -1e-9);
+        CHECK(fall <= 1.0 + 1e-9);
+        last_t = t;
+    }
+    CHECK(last_t == doctest::Approx(60.0).epsilon(1e-9));
+    const std::string plot = slurp(svg);
+    CHECK(well_formed_svg(plot));
+    CHECK(plot.find("t90") != std::string::npos);
+    CHECK(plot.find("fall t90") != std::string::npos);
+    for (const auto& e : fs::directory_iterator(dir))
+        CHECK_FALSE(counterflux::tool::is_atomic_write_temporary(e.path().filename().string()));
+}
+
+TEST_CASE("step: bad input exits 2 with FILE:LINE:COLUMN, a failed write leaves no file") {
+    // A membrane without a film diffusivity: the step response cannot be computed.
+    const std::string membrane = COUNTERFLUX_SOURCE_DIR "/tests/data/good/membrane_o2.toml";
+    auto [status, err] = run_stderr({"step", membrane});
+    CHECK(status == 2);
+    CHECK(err.rfind(membrane + ":19:1: error: ", 0) == 0);
+    CHECK(err.find("diffusivity") != std::string::npos);
+    // A broken file is refused by the reader like every verb's.
+    const std::string bad = COUNTERFLUX_SOURCE_DIR "/tests/data/bad/membrane_partition_zero.toml";
+    std::tie(status, err) = run_stderr({"step", bad, "--json"});
+    CHECK(status == 2);
+    CHECK(err.rfind(bad + ":24:13: error: ", 0) == 0);
+    // An empty --csv path is a usage error; a directory that does not exist a failed write.
+    std::tie(status, err) = run_stderr({"step", step_example, "--csv", ""});
+    CHECK(status == 2);
+    const fs::path dir = scratch("step_fail");
+    const fs::path missing = dir / "nowhere" / "curve.csv";
+    std::tie(status, err) = run_stderr({"step", step_example, "--csv", missing.string()});
+    CHECK(status != 0);
+    CHECK_FALSE(fs::exists(missing));
+    CHECK(fs::is_empty(dir));
+}
+
+TEST_CASE("step: every example settles its t90 to 0.1 % and keeps its mass balance") {
+    int seen = 0;
+    for (const auto& e : fs::directory_iterator(COUNTERFLUX_SOURCE_DIR "/examples")) {
+        if (e.path().extension() != ".toml") continue;
+        CAPTURE(e.path().string());
+        const nlohmann::json j = run_json({"step", e.path().string(), "--json"});
+        const double t90 = j["t90_s"];
+        CHECK(t90 > 0.0);
+        CHECK(j["t90_error_s"].get<double>() <= 1e-3 * t90);
+        CHECK(j["max_mass_balance_error"].get<double>() < 1e-9);
+        // The parts' shares of their summed times add up to 1.
+        double share = 0.0;
+        for (const auto& p : j["parts"]) share += p["share"].get<double>();
+        CHECK(share == doctest::Approx(1.0).epsilon(1e-12));
+        ++seen;
+    }
+    CHECK(seen >= 3);
 }

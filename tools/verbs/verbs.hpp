@@ -92,6 +92,24 @@ int run_inspect(const inspect_options& options, std::ostream& out);
 /// Declares the verb on app; output goes to out.
 verb add_inspect_verb(CLI::App& app, std::ostream& out);
 
+// ---- step ------------------------------------------------------------------
+
+/// Options of `counterflux step FILE`.
+struct step_options {
+    std::string file;
+    std::optional<std::string> csv;  ///< write the curve here (atomically)
+    std::optional<std::string> svg;  ///< write the plot here (atomically)
+    bool json = false;
+};
+
+/// Prints the step response of the file's chain (t10, t50, t90, fall t90, the
+/// error estimate, what sets t90); writes the curve and the plot when asked.
+/// Throws input_error / run_error / check_failed (t90 not settled to 0.1 %).
+int run_step(const step_options& options, std::ostream& out);
+
+/// Declares the verb on app; output goes to out.
+verb add_step_verb(CLI::App& app, std::ostream& out);
+
 }  // namespace counterflux::tool
 
 #endif  // COUNTERFLUX_TOOLS_VERBS_HPP
