@@ -14,11 +14,11 @@
 //   - the steady state against the library's own dilute resistance
 //     (series.hpp), and the discrete mass balance to 1e-9 in double.
 //
-// counterflux-test: host-only
-// (the solvers here hold 100 to 800 nodes, 10 to 90 KiB each, more than the MCU
-// images' stacks (64 KiB on the M4F, 4 KiB on the M0+), and the recorders use the
-// heap; the float instantiation is cross-compiled for the M4F by
-// tests/header_checks/instantiate_api.inc and checked there for double helpers.)
+// counterflux-test: not-small
+// (the solvers here hold 100 to 800 nodes, 10 to 90 KiB each, and the recorders
+// use the heap: the M4F test image (1 MiB of stack, heap in the rest of its 4 MiB)
+// runs them; the M0+ image (16 KiB of RAM) leaves this file out, and the float
+// instantiation is cross-compiled for both by tests/header_checks/instantiate_api.inc.)
 #include <doctest/doctest.h>
 
 #include <cmath>
