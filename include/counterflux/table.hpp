@@ -406,7 +406,9 @@ constexpr std::uint32_t edge_flag_pair(status below_flag, status above_flag) noe
 /// locate_clamped's cell and flags on the axis's uniform() view, returned in a
 /// register; the caller finds the fraction from its own position (edge_position).
 /// flags holds the below flag in bits 0 .. 15 and the above flag in bits 16 .. 31.
-/// The axis comes by reference so that the caller keeps no copy across the call.
+/// The axis comes by reference: the caller loads nothing it would keep across the
+/// call, and GCC makes a local copy (IPA-SRA) whose register use the caller knows,
+/// so its own values stay in scratch registers (no callee-saved FP registers pushed).
 template <class T>
 [[gnu::noinline]] constexpr std::uint32_t locate_compact_cell(T x, const T& origin, const T& inv_step,
                                                               std::ptrdiff_t cells, std::uint32_t flags) noexcept {
