@@ -149,7 +149,7 @@ def main():
     m0 = facts["m0plus"]
     size_of = lambda f, name: sum(s for n, k, s in f["syms"] if n == name)
     path_text = sum(s for n, k, s in m4["lib"] if k in "tTwW" and
-                    (n.startswith("counterflux::") or n == "counterflux_example_library_reading"))
+                    ("counterflux::" in n or n == "counterflux_example_library_reading"))
     # Worst of the measured calls: inside the grid and on the edge path.
     worst = lambda name: max((b for n, b in m4["stacks"].items() if n in (name, name + "(edge)")), default=None)
     path_stack = worst("counterflux::reading")

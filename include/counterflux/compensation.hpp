@@ -302,15 +302,17 @@ namespace detail {
 template <class T, std::size_t NT, std::size_t NP>
 [[gnu::noinline]] constexpr result<T> read_fixed(const compensation<T, NT, NP>& c, T signal_A, T temperature_K,
                                                  T pressure_Pa) noexcept {
-    // The axes' scalars as ref() gives them (step() divides: edge path only).
+    static_assert(NT - 1u <= packed_index_mask && NP - 1u <= packed_index_mask, "at most 32767 cells per axis");
+    // The cells come back in registers; the fractions are found here, from the axes
+    // as ref() gives them.
     const auto& a0 = c.correction.axis0;
     const auto& a1 = c.correction.axis1;
-    const axis_position<T> pt = locate_clamped_scalar(temperature_K, a0.origin, a0.step(), a0.inv_step,
-                                                      std::ptrdiff_t(NT) - 1, status::first_axis_below,
-                                                      status::first_axis_above);
-    const axis_position<T> pp = locate_clamped_scalar(pressure_Pa, a1.origin, a1.step(), a1.inv_step,
-                                                      std::ptrdiff_t(NP) - 1, status::second_axis_below,
-                                                      status::second_axis_above);
+    const std::uint32_t ct = locate_compact_cell(temperature_K, a0.origin, a0.inv_step, std::ptrdiff_t(NT) - 1,
+                                                 edge_flag_pair(status::first_axis_below, status::first_axis_above));
+    const std::uint32_t cp = locate_compact_cell(pressure_Pa, a1.origin, a1.inv_step, std::ptrdiff_t(NP) - 1,
+                                                 edge_flag_pair(status::second_axis_below, status::second_axis_above));
+    const axis_position<T> pt = edge_position(ct, position(a0, temperature_K));
+    const axis_position<T> pp = edge_position(cp, position(a1, pressure_Pa));
     const T w = linear_at(c.correction.values.data(), c.zero.data(), NP, c.gain, pt, pp, signal_A);
     return finished(w, signal_A, pt.code | pp.code);
 }

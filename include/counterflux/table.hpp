@@ -116,23 +116,45 @@ template <class T>
 
 namespace detail {
 
+/// The position t of an edge input clamped to [0, top] (NaN to 0).
+template <class T>
+[[gnu::always_inline]] constexpr T clamp_position(T t, T top) noexcept {
+    t = t > T(0) ? t : T(0);  // also maps NaN to 0
+    return t < top ? t : top;
+}
+
+/// The cell of a clamped position t: its floor, limited to the last cell.
+template <class T>
+[[gnu::always_inline]] constexpr std::ptrdiff_t clamped_cell(T t, std::ptrdiff_t cells) noexcept {
+    const std::ptrdiff_t i = static_cast<std::ptrdiff_t>(t);  // t >= 0: the truncation is the floor
+    return i < cells - 1 ? i : cells - 1;
+}
+
+/// The fraction of a clamped position t in cell i: exactly 1 at or beyond the last node.
+template <class T>
+[[gnu::always_inline]] constexpr T clamped_fraction(T t, std::ptrdiff_t i, bool at_last) noexcept {
+    const T f = t - static_cast<T>(i);  // in [0, 1]
+    return at_last ? T(1) : f;          // the last node exactly, whatever t rounded to
+}
+
+/// The flags of an edge input x on an axis from origin to last.
+template <class T>
+[[gnu::always_inline]] constexpr status edge_flags(T x, T origin, T last, status below_flag,
+                                                   status above_flag) noexcept {
+    // One test for NaN and +-inf: neither lies within [-max, max]; x < origin is false for NaN.
+    const bool not_finite_x = !(x >= -std::numeric_limits<T>::max() && x <= std::numeric_limits<T>::max());
+    return axis_flags(x < origin, x > last, not_finite_x, below_flag, above_flag);
+}
+
 /// locate() for the inputs its fast path does not take: at or beyond an edge,
 /// or not finite. Clamps and flags; branch-free selects.
 template <class T>
 constexpr axis_position<T> locate_edge(T x, T t, T top, T last, std::ptrdiff_t cells, status below_flag,
                                        status above_flag, T origin) noexcept {
-    const bool below = x < origin;  // false for NaN
-    const bool above = x > last;
-    // One test for NaN and +-inf: neither lies within [-max, max].
-    const bool not_finite_x = !(x >= -std::numeric_limits<T>::max() && x <= std::numeric_limits<T>::max());
-    t = t > T(0) ? t : T(0);  // also maps NaN to 0
-    t = t < top ? t : top;
-    std::ptrdiff_t i = static_cast<std::ptrdiff_t>(t);  // t >= 0: the truncation is the floor
-    i = i < cells - 1 ? i : cells - 1;
-    T f = t - static_cast<T>(i);  // in [0, 1]
-    f = x >= last ? T(1) : f;     // the last node exactly, whatever t rounded to
-    return axis_position<T>{static_cast<std::size_t>(i), f,
-                            axis_flags(below, above, not_finite_x, below_flag, above_flag)};
+    t = clamp_position(t, top);
+    const std::ptrdiff_t i = clamped_cell(t, cells);
+    return axis_position<T>{static_cast<std::size_t>(i), clamped_fraction(t, i, x >= last),
+                            edge_flags(x, origin, last, below_flag, above_flag)};
 }
 
 }  // namespace detail
@@ -197,6 +219,23 @@ template <class T>
 [[gnu::always_inline]] constexpr axis_position<T> locate_clamped(const uniform_axis<T>& a, T x, status below_flag,
                                                                  status above_flag) noexcept {
     return locate_clamped_scalar(x, a.origin, a.step, a.inv_step, cells_of(a), below_flag, above_flag);
+}
+
+/// Bits of a packed edge cell (locate_compact_cell): the cell index below bit 15 (so
+/// at most 32767 cells), bit 15 set at or beyond the last node, the status above.
+inline constexpr std::uint32_t packed_index_mask = 0x7fffu;
+inline constexpr std::uint32_t packed_at_last = 0x8000u;  ///< x at or beyond the last node: fraction exactly 1
+inline constexpr unsigned packed_status_shift = 16u;      ///< the status sits in bits 16 .. 31
+
+/// The axis_position of an edge input from its packed cell (locate_compact_cell)
+/// and its unclamped position t: the same cell, fraction and flags as locate_clamped.
+template <class T>
+[[gnu::always_inline]] constexpr axis_position<T> edge_position(std::uint32_t packed, T t) noexcept {
+    const std::ptrdiff_t i = static_cast<std::ptrdiff_t>(packed & packed_index_mask);
+    // Without packed_at_last t < top (see locate_compact_cell): the lower clamp is the whole clamp.
+    return axis_position<T>{static_cast<std::size_t>(i),
+                            clamped_fraction(t > T(0) ? t : T(0), i, (packed & packed_at_last) != 0u),
+                            static_cast<status>(static_cast<std::uint16_t>(packed >> packed_status_shift))};
 }
 
 }  // namespace detail
@@ -318,6 +357,17 @@ constexpr table_2d<T, N0, N1> make_table_2d(T from0, T to0, T from1, T to1, cons
 // ---------------------------------------------------------------------------
 // Compact fixed-size axes and tables (the count is a template parameter)
 
+namespace detail {
+
+/// The step 1 / inv_step of a compact axis (0 when inv_step is 0 or the quotient overflows).
+template <class T>
+constexpr T step_from_inverse(T inv_step) noexcept {
+    const T s = inv_step != T(0) ? T(1) / inv_step : T(0);
+    return finite(s) ? s : T(0);
+}
+
+}  // namespace detail
+
 /// A uniform axis of N nodes held in flash as two numbers: origin and 1/step. The
 /// step, which only the edge path and design-time code need, is derived as
 /// 1 / inv_step, so node i is origin + i * step() everywhere.
@@ -328,10 +378,7 @@ struct compact_axis {
     T inv_step;  ///< 1 / step, per unit of the axis (0 for a degenerate axis)
 
     /// The node spacing 1 / inv_step, unit of the axis (0 when inv_step is 0 or the quotient overflows).
-    constexpr T step() const noexcept {
-        const T s = inv_step != T(0) ? T(1) / inv_step : T(0);
-        return detail::finite(s) ? s : T(0);
-    }
+    constexpr T step() const noexcept { return detail::step_from_inverse(inv_step); }
 
     /// The same axis as a uniform_axis (what the size-erased views hold).
     constexpr uniform_axis<T> uniform() const noexcept { return uniform_axis<T>{origin, step(), inv_step, N}; }
@@ -346,6 +393,39 @@ namespace detail {
 template <class T, std::size_t N>
 [[gnu::always_inline]] constexpr T position(const compact_axis<T, N>& a, T x) noexcept {
     return (x - a.origin) * a.inv_step;
+}
+
+/// The flags argument of locate_compact_cell: below in bits 0 .. 15, above in 16 .. 31.
+constexpr std::uint32_t edge_flag_pair(status below_flag, status above_flag) noexcept {
+    return static_cast<std::uint32_t>(static_cast<std::uint16_t>(below_flag)) |
+           (static_cast<std::uint32_t>(static_cast<std::uint16_t>(above_flag)) << 16);
+}
+
+/// The packed cell and flags (see packed_index_mask) of an edge input x on a
+/// compact axis of `cells` cells (at most 32767) given by its origin and inv_step:
+/// locate_clamped's cell and flags on the axis's uniform() view, returned in a
+/// register; the caller finds the fraction from its own position (edge_position).
+/// flags holds the below flag in bits 0 .. 15 and the above flag in bits 16 .. 31.
+/// The axis comes by reference: the caller loads nothing it would keep across the
+/// call, and GCC makes a local copy (IPA-SRA) whose register use the caller knows,
+/// so its own values stay in scratch registers (no callee-saved FP registers pushed).
+template <class T>
+[[gnu::noinline]] constexpr std::uint32_t locate_compact_cell(T x, const T& origin, const T& inv_step,
+                                                              std::ptrdiff_t cells, std::uint32_t flags) noexcept {
+    const T top = static_cast<T>(cells);
+    const T last = origin + top * step_from_inverse(inv_step);
+    const T t = clamp_position((x - origin) * inv_step, top);
+    const std::ptrdiff_t i = clamped_cell(t, cells);
+    // edge_flags as masks, selected without branches.
+    const std::uint32_t below = x < origin ? (flags & 0xffffu) | std::uint32_t(status::below_range) : 0u;
+    const std::uint32_t above = x > last ? (flags >> 16) | std::uint32_t(status::above_range) : 0u;
+    const T magnitude = x < T(0) ? -x : x;  // NaN stays NaN and fails the test below
+    const std::uint32_t not_finite_x =
+        magnitude <= std::numeric_limits<T>::max() ? 0u : std::uint32_t(status::not_finite);
+    // At the top the clamped fraction is exactly 1 whatever x: t = top gives cell
+    // cells - 1 and top - (cells - 1) = 1. So the bit spares the caller the upper clamp.
+    return static_cast<std::uint32_t>(i) | (x >= last || t >= top ? packed_at_last : 0u) |
+           ((below | above | not_finite_x) << packed_status_shift);
 }
 
 }  // namespace detail

@@ -574,3 +574,41 @@ TEST_CASE_TEMPLATE("compensation: the compact object reads bit for bit as its re
                 CHECK(cf::span(c, t, p).value == cf::span(r, t, p).value);
             }
 }
+
+TEST_CASE_TEMPLATE("compensation: the compact object's edge path matches its view ulp by ulp at the grid's ends", T,
+                   float, double) {
+    constexpr std::size_t n0 = 15, n1 = 9;
+    T corr[n0 * n1] = {}, zero[n0] = {};
+    for (std::size_t i = 0; i < n0; ++i) {
+        for (std::size_t j = 0; j < n1; ++j)
+            corr[i * n1 + j] = T(1) / (T(1) + T(0.003) * static_cast<T>(i) - T(0.002) * static_cast<T>(j));
+        zero[i] = T(1e-9) + T(0.1e-9) * static_cast<T>(i);
+    }
+    const cf::compensation<T, n0, n1> c =
+        cf::make_compensation<T, n0, n1>(T(253.15), T(323.15), T(70000), T(110000), corr, zero, T(1) / T(1.7e-3));
+    const cf::compensation_ref<T> r = c.ref();
+    // Walk 48 ulps either side of each end of each axis (the 8-eps band below the
+    // last node included), the other input inside and at its ends.
+    const T t_ends[] = {T(253.15), T(323.15)}, p_ends[] = {T(70000), T(110000)};
+    const T t_other[] = {T(253.15), T(288.7), T(323.15)}, p_other[] = {T(70000), T(95000), T(110000)};
+    const auto same = [&](T t, T p) {
+        const cf::result<T> a = cf::reading(c, T(5e-7), t, p), b = cf::reading(r, T(5e-7), t, p);
+        return a.code == b.code && a.value == b.value;
+    };
+    int mismatches = 0;
+    for (const T end : t_ends)
+        for (const T p : p_other) {
+            T t = end;
+            for (int k = 0; k < 48; ++k) t = std::nextafter(t, T(0));
+            for (int k = 0; k <= 96; ++k, t = std::nextafter(t, std::numeric_limits<T>::infinity()))
+                if (!same(t, p)) ++mismatches;
+        }
+    for (const T end : p_ends)
+        for (const T t : t_other) {
+            T p = end;
+            for (int k = 0; k < 48; ++k) p = std::nextafter(p, T(0));
+            for (int k = 0; k <= 96; ++k, p = std::nextafter(p, std::numeric_limits<T>::infinity()))
+                if (!same(t, p)) ++mismatches;
+        }
+    CHECK(mismatches == 0);
+}
