@@ -299,6 +299,10 @@ void read_sensor(reader& r, const toml::table& t, sensor_file& out, const source
             r.error(s->place, "'sensor.symbol' = " + s->text + " is a C or C++ keyword");
         else if (s->value.size() > 31)
             r.error(s->place, "'sensor.symbol' = " + s->text + " is longer than 31 characters");
+        else if (s->value.front() == '_' || s->value.find("__") != std::string::npos)
+            r.error(s->place, "'sensor.symbol' = " + s->text +
+                                  " starts with '_' or holds '__': such names are reserved to the C and C++ "
+                                  "implementation; start with a letter");
         else
             out.symbol = s->value;
     }
@@ -660,6 +664,17 @@ void read_table(reader& r, const toml::table& t, sensor_file& out, const source_
         spec.max_error_given = true;
         spec.max_error_place = v->place;
     } else ok &= !t.contains("max_error");
+    // Most nodes a table may have (common practice: a compensation table is a few
+    // hundred nodes in flash; 16384 floats are 64 KiB, and the proof evaluates the
+    // model about 1200 times per node).
+    constexpr unsigned long max_nodes = 16384;
+    if (ok && static_cast<unsigned long>(spec.temperature.points) * spec.pressure.points > max_nodes) {
+        r.error(spec.pressure.place, "'table.temperature.points' x 'table.pressure.points' = " +
+                                         std::to_string(spec.temperature.points) + " x " +
+                                         std::to_string(spec.pressure.points) + " is more than " +
+                                         std::to_string(max_nodes) + " nodes; use fewer points");
+        ok = false;
+    }
     if (ok && !spec.max_error_given) {
         for (const axis_spec* a : {&spec.temperature, &spec.pressure})
             if (a->points == 0) {

@@ -147,43 +147,94 @@ double model_span(const sensor_file& f, double temperature_K, double pressure_Pa
 // The proof on the grid fine_t x fine_p (subdivisions of the table's axes):
 // span everywhere, reading at every concentration of the proof set.
 table_proof prove(const sensor_file& f, const table_set& t, const std::vector<double>& ts,
-                  const std::vector<double>& ps) {
+                  const std::vector<double>& ps, proof_point* fixed_out = nullptr) {
     const stored_lookup lookup(t);
     table_proof proof;
+    const bool fixed = fixed_out != nullptr && t.fixed.present;
+    proof_point fixed_worst;
     proof.fine_t = ts.size();
     proof.fine_p = ps.size();
     proof.fine_temperatures = ts;
     proof.error_by_temperature.assign(ts.size(), 0.0);
-    for (std::size_t it = 0; it < ts.size(); ++it) {
-        const double tk = ts[it];
-        double& worst_here = proof.error_by_temperature[it];
+    // One condition: the span, and the reading at every concentration of the set.
+    const auto check = [&](double tk, double pp, double& worst_here) {
         const double i0 = model_zero(t, tk);
-        for (const double pp : ps) {
-            ++proof.condition_points;
-            const double s = model_span(f, tk, pp);
-            const double se = std::fabs(lookup.span_at(tk, pp) - s) / s;
-            if (!(se <= proof.span.error)) proof.span = {tk, pp, 0.0, se};
-            worst_here = std::max(worst_here, se);
-            const double scale = t.partial_pressure ? pp : 1.0;
-            const double floor = reading_floor_of_full_scale * t.full_scale_mol_mol * scale;
-            const std::size_t ny = proof_fractions(t);
-            for (std::size_t k = 0; k <= ny; ++k) {
-                const double y = t.full_scale_mol_mol * static_cast<double>(k) / static_cast<double>(ny);
-                const auto current = limiting_current_A(f.model, tk, pp, y);
-                if (!current.ok())
-                    throw run_error("the model's current at " + format_concentration(y) + ", " +
-                                    format_temperature(tk) + ", " + format_pressure(pp) +
-                                    " cannot be computed: " + describe(current.code));
-                ++proof.reading_points;
-                const double truth = y * scale;
-                const double got = lookup.reading_at(current.value + i0, tk, pp);
-                const double e = std::fabs(got - truth) / std::max(truth, floor);
-                if (!(e <= proof.reading.error)) proof.reading = {tk, pp, y, e};
-                worst_here = std::max(worst_here, e);
+        ++proof.condition_points;
+        const double s = model_span(f, tk, pp);
+        const double se = std::fabs(lookup.span_at(tk, pp) - s) / s;
+        if (!(se <= proof.span.error)) proof.span = {tk, pp, 0.0, se};
+        worst_here = std::max(worst_here, se);
+        const double scale = t.partial_pressure ? pp : 1.0;
+        const double floor = reading_floor_of_full_scale * t.full_scale_mol_mol * scale;
+        const std::size_t ny = proof_fractions(t);
+        for (std::size_t k = 0; k <= ny; ++k) {
+            const double y = t.full_scale_mol_mol * static_cast<double>(k) / static_cast<double>(ny);
+            const auto current = limiting_current_A(f.model, tk, pp, y);
+            if (!current.ok())
+                throw run_error("the model's current at " + format_concentration(y) + ", " + format_temperature(tk) +
+                                ", " + format_pressure(pp) + " cannot be computed: " + describe(current.code));
+            ++proof.reading_points;
+            const double truth = y * scale;
+            const double got = lookup.reading_at(current.value + i0, tk, pp);
+            const double e = std::fabs(got - truth) / std::max(truth, floor);
+            if (!(e <= proof.reading.error)) proof.reading = {tk, pp, y, e};
+            worst_here = std::max(worst_here, e);
+            if (fixed) {
+                // The integer path's inputs as firmware has them: whole pA, mK and Pa.
+                unsigned flags = 0u;
+                const auto i_pA = static_cast<std::int32_t>(std::llround((current.value + i0) * 1.0e12));
+                const auto t_mK = static_cast<std::int32_t>(std::llround(tk * 1000.0));
+                const auto p_Pa = static_cast<std::int32_t>(std::llround(pp));
+                const double r = static_cast<double>(fixed_reading(t, i_pA, t_mK, p_Pa, flags)) * t.fixed.unit;
+                const double ef = std::fabs(r - truth) / std::max(truth, floor);
+                if (!(ef <= fixed_worst.error)) fixed_worst = {tk, pp, y, ef};
             }
+        }
+    };
+    for (std::size_t it = 0; it < ts.size(); ++it)
+        for (const double pp : ps) check(ts[it], pp, proof.error_by_temperature[it]);
+    // Then ten times finer again around the worst points found (one proof step
+    // either side), where the error surface peaks.
+    if (ts.size() > 1 && ps.size() > 1) {
+        const double ht = ts[1] - ts[0], hp = ps[1] - ps[0];
+        double unused = 0.0;
+        for (const proof_point w : {proof.reading, proof.span}) {
+            for (int a = -10; a <= 10; ++a)
+                for (int b = -10; b <= 10; ++b) {
+                    const double tk = std::clamp(w.temperature_K + ht * a / 10.0, ts.front(), ts.back());
+                    const double pp = std::clamp(w.pressure_Pa + hp * b / 10.0, ps.front(), ps.back());
+                    check(tk, pp, unused);
+                }
         }
     }
     proof.max_error = std::max(proof.span.error, proof.reading.error);
+    if (fixed) {
+        // The proof points are round numbers, where the integer path's input and
+        // output rounding vanish; add its worst case in the proof's measure: half
+        // an output count and half a pA of signal, over the smallest floor, and
+        // half a mK / half a Pa times the steepest relative slope of the tables.
+        const double floor_min = reading_floor_of_full_scale * t.full_scale_mol_mol *
+                                 (t.partial_pressure ? t.pressure.from : 1.0);
+        const std::size_t nt = t.temperature.count, np = t.pressure.count;
+        double c_max = 0.0, slope_t = 0.0, slope_p = 0.0, zero_slope = 0.0;
+        for (std::size_t i = 0; i < nt; ++i)
+            for (std::size_t j = 0; j < np; ++j) {
+                const double c = t.correction.exact[i * np + j];
+                c_max = std::max(c_max, c);
+                if (i + 1 < nt)
+                    slope_t = std::max(slope_t, std::fabs(t.correction.exact[(i + 1) * np + j] - c) /
+                                                    (c * t.temperature.step()));
+                if (j + 1 < np)
+                    slope_p = std::max(slope_p, std::fabs(t.correction.exact[i * np + j + 1] - c) /
+                                                    (c * t.pressure.step()));
+            }
+        for (std::size_t i = 0; i + 1 < nt; ++i)
+            zero_slope = std::max(zero_slope, std::fabs(t.zero.exact[i + 1] - t.zero.exact[i]) / t.temperature.step());
+        const double quantisation = (0.5 * t.fixed.unit + 0.5e-12 * t.gain * c_max) / floor_min +
+                                    0.5e-3 * (slope_t + zero_slope * t.gain * c_max / floor_min) + 0.5 * slope_p;
+        fixed_worst.error += quantisation;
+        *fixed_out = fixed_worst;
+    }
     return proof;
 }
 
@@ -219,7 +270,102 @@ double shape_table(table_set& t, double lo, double hi, std::size_t n, const std:
     return worst;
 }
 
+// The integer axis of a grid axis scaled to whole units (mK: 1000, Pa: 1); absent
+// (count 0) when the span has fewer than two units per step or leaves int32.
+fixed_axis make_fixed_axis(const grid_axis& a, double units) {
+    fixed_axis f;
+    const double from = std::round(a.from * units), to = std::round(a.to * units);
+    const double span = to - from;
+    if (!(span >= 2.0 * static_cast<double>(a.count - 1)) || std::fabs(from) > 2.0e9 || std::fabs(to) > 2.0e9)
+        return f;
+    f.from = static_cast<std::int64_t>(from);
+    f.span = static_cast<std::int64_t>(span);
+    f.inv_q32 = static_cast<std::uint64_t>(std::llround(4294967296.0 * static_cast<double>(a.count - 1) / span));
+    f.count = a.count;
+    return f;
+}
+
+// The constants of the integer-only reading (q15 values, linear law).
+fixed_path make_fixed(const table_set& t) {
+    fixed_path f;
+    if (t.values != "q15" || !t.linear) return f;
+    f.temperature = make_fixed_axis(t.temperature, 1000.0);
+    f.pressure = make_fixed_axis(t.pressure, 1.0);
+    if (f.temperature.count == 0 || f.pressure.count == 0) return f;
+    // Full-scale current (with the zero) must fit int32 pA, and the zero table too.
+    const double i_max = t.full_scale / t.gain * 2.0 + std::fabs(static_cast<double>(t.zero.offset)) +
+                         std::fabs(static_cast<double>(t.zero.scale));
+    if (!(i_max * 1.0e12 < 2.0e9)) return f;
+    f.unit = t.partial_pressure ? 1.0e-3 : 1.0e-9;
+    const double per_pA = t.gain * 1.0e-12 / f.unit;  // output counts per pA at c = 1
+    const double c_hi = std::max(std::fabs(static_cast<double>(t.correction.offset)) +
+                                     std::fabs(static_cast<double>(t.correction.scale)),
+                                 1.0e-30);
+    int shift = 0;
+    while (shift < 46 && per_pA * c_hi * std::ldexp(1.0, shift + 1) < 1073741824.0) ++shift;
+    f.shift = shift;
+    f.gain_offset = std::llround(static_cast<double>(t.correction.offset) * per_pA * std::ldexp(1.0, shift));
+    f.gain_scale = std::llround(static_cast<double>(t.correction.scale) * per_pA * std::ldexp(1.0, shift));
+    f.zero_offset_pA = std::llround(static_cast<double>(t.zero.offset) * 1.0e12);
+    f.zero_scale_pA = std::llround(static_cast<double>(t.zero.scale) * 1.0e12);
+    f.present = true;
+    return f;
+}
+
+std::int32_t lerp_q15(std::int32_t a, std::int32_t b, std::int32_t f) { return a + (((b - a) * f + 16384) >> 15); }
+
+// Cell index and Q15 fraction on an integer axis, clamped and flagged, as the header does.
+std::int32_t fixed_position(const fixed_axis& a, std::int32_t x, unsigned below, unsigned above, unsigned& flags,
+                            std::int32_t& fraction) {
+    std::int64_t d = static_cast<std::int64_t>(x) - a.from;
+    if (d < 0) {
+        flags |= below | 0x10u;
+        d = 0;
+    }
+    if (d > a.span) {
+        flags |= above | 0x20u;
+        d = a.span;
+    }
+    const auto pos = static_cast<std::uint32_t>((static_cast<std::uint64_t>(d) * a.inv_q32 + 65536u) >> 17);
+    auto i = static_cast<std::int32_t>(pos >> 15);
+    fraction = static_cast<std::int32_t>(pos & 0x7fffu);
+    const auto last_cell = static_cast<std::int32_t>(a.count) - 2;
+    if (i > last_cell) {
+        i = last_cell;
+        fraction = 32768;
+    }
+    return i;
+}
+
 }  // namespace
+
+std::int32_t fixed_reading(const table_set& t, std::int32_t signal_pA, std::int32_t temperature_mK,
+                           std::int32_t pressure_Pa, unsigned& flags) {
+    const fixed_path& f = t.fixed;
+    flags = 0u;
+    std::int32_t ft = 0, fp = 0;
+    const std::int32_t it = fixed_position(f.temperature, temperature_mK, 0x40u, 0x80u, flags, ft);
+    const std::int32_t ip = fixed_position(f.pressure, pressure_Pa, 0x100u, 0x200u, flags, fp);
+    const auto np = static_cast<std::size_t>(f.pressure.count);
+    const std::int16_t* v = t.correction.q15.data() + static_cast<std::size_t>(it) * np + static_cast<std::size_t>(ip);
+    const std::int32_t a = lerp_q15(v[0], v[1], fp);
+    const std::int32_t b = lerp_q15(v[np], v[np + 1], fp);
+    const std::int32_t q = lerp_q15(a, b, ft);
+    const std::int32_t zq = lerp_q15(t.zero.q15[static_cast<std::size_t>(it)], t.zero.q15[static_cast<std::size_t>(it) + 1], ft);
+    const std::int64_t k = f.gain_offset + ((f.gain_scale * q) >> 15);
+    const std::int64_t zero = f.zero_offset_pA + ((f.zero_scale_pA * zq) >> 15);
+    std::int64_t r = (static_cast<std::int64_t>(signal_pA) - zero) * k;
+    if (f.shift > 0) r = (r + (std::int64_t(1) << (f.shift - 1))) >> f.shift;
+    if (r > 2147483647) {
+        r = 2147483647;
+        flags |= 0x20u;
+    }
+    if (r < -2147483647) {
+        r = -2147483647;
+        flags |= 0x10u;
+    }
+    return static_cast<std::int32_t>(r);
+}
 
 std::size_t table_set::table_bytes() const {
     const std::size_t element = values == "q15" ? 2 : 4;
@@ -276,6 +422,9 @@ table_set build_nodes(const sensor_file& f, const grid_axis& temperature, const 
                                 format_pressure(pp) + " cannot be computed: " + describe(g.code));
             t.curvature.exact[i * np + j] = g.value;
             const auto current = limiting_current_A(m, tk, pp, t.full_scale_mol_mol);
+            if (!current.ok())
+                throw run_error("the current at full scale at " + format_temperature(tk) + ", " +
+                                format_pressure(pp) + " cannot be computed: " + describe(current.code));
             const double w_fs = current.value * t.gain / sv;
             const double z = g.value * w_fs;
             z_low = std::min(z_low, z);
@@ -286,6 +435,7 @@ table_set build_nodes(const sensor_file& f, const grid_axis& temperature, const 
     store(t.span, "float32");
     store(t.correction, values);
     store(t.zero, values);
+    t.fixed = make_fixed(t);
     if (!t.linear) {
         store(t.curvature, values);
         double lo = std::min(shape_over_range * z_low, -shape_under_range * z_abs);
@@ -313,7 +463,7 @@ table_set build_nodes(const sensor_file& f, const grid_axis& temperature, const 
 table_set build_tables(const sensor_file& f, const grid_axis& temperature, const grid_axis& pressure,
                        const std::string& values) {
     table_set t = build_nodes(f, temperature, pressure, values);
-    t.proof = prove(f, t, refine(temperature), refine(pressure));
+    t.proof = prove(f, t, refine(temperature), refine(pressure), &t.fixed.worst);
     return t;
 }
 

@@ -58,6 +58,30 @@ struct table_proof {
     std::vector<double> error_by_temperature;  ///< worst span or reading error at each of them
 };
 
+/// One integer axis of the integer-only reading (q15 tables of a linear law):
+/// inputs in whole mK or Pa, position in steps = (x - from) (count - 1) / span.
+struct fixed_axis {
+    std::int64_t from = 0;        ///< first node, mK or Pa (rounded)
+    std::int64_t span = 0;        ///< last node - first node, mK or Pa (rounded)
+    std::uint64_t inv_q32 = 0;    ///< round(2^32 (count - 1) / span): steps per unit, Q32
+    std::size_t count = 0;
+};
+
+/// The constants of SYMBOL_reading_fixed (signal in pA, reading in ppb or mPa)
+/// and its own proven error (it quantises inputs, constants and the output).
+struct fixed_path {
+    bool present = false;         ///< q15 values, linear law, representable axes and currents
+    fixed_axis temperature;       ///< mK
+    fixed_axis pressure;          ///< Pa
+    int shift = 0;                ///< gain constants are scaled by 2^shift
+    std::int64_t gain_offset = 0; ///< (gain c) offset, reading units per pA times 2^shift
+    std::int64_t gain_scale = 0;  ///< (gain c) q15 scale, same unit
+    std::int64_t zero_offset_pA = 0;
+    std::int64_t zero_scale_pA = 0;
+    double unit = 0.0;            ///< SI value of one output count (1e-9 mol/mol, or 1e-3 Pa)
+    proof_point worst;            ///< its worst reading error (proof measure), 0 until proven
+};
+
 /// Everything the table verb writes.
 struct table_set {
     std::string symbol;
@@ -80,9 +104,17 @@ struct table_set {
     grid_axis shape_axis;             ///< z axis of h, when not linear
     stored_table shape;               ///< h(z), when not linear
     table_proof proof;
+    fixed_path fixed;                 ///< the integer-only reading, for q15 tables of a linear law
     std::uint32_t source_crc32 = 0;   ///< CRC-32 of the sensor file's bytes
     std::size_t table_bytes() const;  ///< bytes of table data in the generated header / record
 };
+
+/// The integer-only reading of t.fixed, exactly as the generated
+/// SYMBOL_reading_fixed computes it (the header's C is the same arithmetic):
+/// signal in pA, temperature in mK, pressure in Pa; reading in output counts.
+/// flags receives the status bits the C function sets.
+std::int32_t fixed_reading(const table_set& t, std::int32_t signal_pA, std::int32_t temperature_mK,
+                           std::int32_t pressure_Pa, unsigned& flags);
 
 /// Builds the tables of file's [table] on the given axes (counts > 1) with the
 /// given value type and proves them. Throws input_error when the model cannot

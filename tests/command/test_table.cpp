@@ -5,11 +5,13 @@
 #include <doctest/doctest.h>
 
 #include <cstdint>
+#include <cstdio>
 #include <filesystem>
 #include <fstream>
 #include <iterator>
 #include <sstream>
 #include <string>
+#include <utility>
 #include <vector>
 
 #include <counterflux/record.hpp>
@@ -169,4 +171,56 @@ TEST_CASE("table: bad input exits 2 and names what is wrong") {
     CHECK(run({"table", examples + "/garage_co.toml", "--out", (dir / "o").string(), "--values", "q7"}).status == 2);
     CHECK(run({"table", examples + "/garage_co.toml"}).status == 2);
     CHECK_FALSE(fs::exists(dir / "o"));
+}
+
+namespace {
+
+// Exit status and standard error of the command (standard output discarded).
+std::pair<int, std::string> run_stderr(const std::vector<std::string>& args) {
+    std::string line = counterflux_command_test::shell_quote(counterflux_command_test::command);
+    for (const auto& a : args) line += " " + counterflux_command_test::shell_quote(a);
+    line += " 2>&1 >/dev/null";
+    FILE* pipe = ::popen(line.c_str(), "r");
+    REQUIRE(pipe != nullptr);
+    std::string err;
+    char buffer[4096];
+    std::size_t n = 0;
+    while ((n = std::fread(buffer, 1, sizeof buffer, pipe)) > 0) err.append(buffer, n);
+    const int raw = ::pclose(pipe);
+    return {WIFEXITED(raw) ? WEXITSTATUS(raw) : -1, err};
+}
+
+}  // namespace
+
+TEST_CASE("table: error messages name the file, the place and what was expected") {
+    const fs::path dir = fresh_dir("messages");
+    const fs::path file = garage_with_table(dir, R"([table]
+temperature = { from = "-20 C", to = "50 C" }
+pressure    = { from = "90 kPa", to = "106 kPa", points = 3 }
+)");
+    const auto [status, err] = run_stderr({"table", file.string(), "--out", (dir / "o").string()});
+    CHECK(status == 2);
+    // FILE:LINE:COLUMN: error: ... naming the key and the way out
+    CHECK(err.find(file.string() + ":") == 0);
+    CHECK(err.find(": error: 'table.temperature' has no 'points'") != std::string::npos);
+    CHECK(err.find("table.max_error") != std::string::npos);
+    const auto [s2, e2] = run_stderr({"table", examples + "/garage_co.toml", "--out", (dir / "o").string(), "--values",
+                                      "q7"});
+    CHECK(s2 == 2);
+    CHECK(e2.find("--values") != std::string::npos);
+    CHECK(e2.find("float32 or q15") != std::string::npos);
+}
+
+TEST_CASE("table: a plot that cannot be written leaves no output behind") {
+    const fs::path dir = fresh_dir("svgfail");
+    const fs::path out = dir / "out";
+    fs::create_directories(out);
+    std::ofstream(out / "garage_co.h") << "/* a good table from before */\n";
+    const auto [status, err] = run_stderr({"table", examples + "/garage_co.toml", "--out", out.string(), "--svg",
+                                           (dir / "missing" / "plot.svg").string()});
+    CHECK(status == 1);
+    CHECK(err.find("plot.svg") != std::string::npos);
+    CHECK(slurp(out / "garage_co.h") == "/* a good table from before */\n");
+    CHECK_FALSE(fs::exists(out / "garage_co.bin"));
+    for (const auto& e : fs::directory_iterator(out)) CHECK(e.path().filename() == "garage_co.h");
 }

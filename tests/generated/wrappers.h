@@ -22,6 +22,7 @@ float q15_zero(float temperature_K, unsigned *status);
 float q15_reading(float signal_A, float temperature_K, float pressure_Pa, unsigned *status);
 int32_t q15_reading_fixed(int32_t signal_pA, int32_t temperature_mK, int32_t pressure_Pa, unsigned *status);
 float q15_proven_error(void);
+float q15_fixed_proven_error(void);
 
 /* flue_o2: a stagnant (curved) law, q15 values as the file asks */
 float curved_span(float temperature_K, float pressure_Pa, unsigned *status);

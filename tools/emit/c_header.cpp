@@ -60,9 +60,6 @@ void array(std::ostringstream& o, const char* type, const std::string& name, con
     o << "};\n\n";
 }
 
-// Round-to-nearest of a non-negative or negative double to int64.
-std::int64_t round64(double v) { return static_cast<std::int64_t>(std::llround(v)); }
-
 }  // namespace
 
 std::string c_header_text(const table_set& t, const provenance& p) {
@@ -113,7 +110,8 @@ std::string c_header_text(const table_set& t, const provenance& p) {
       << " * NOT_FINITE flag. Assumes IEEE-754 float without -ffast-math"
       << (q15 ? " and an\n * arithmetic right shift of negative integers (GCC, Clang, Arm compilers)" : "") << ".\n"
       << " */\n";
-    o << "#ifndef " << S << "_H\n#define " << S << "_H\n\n#include <stdint.h>\n\n"
+    o << "#ifndef COUNTERFLUX_GENERATED_" << S << "_H\n#define COUNTERFLUX_GENERATED_" << S
+      << "_H\n\n#include <stdint.h>\n\n"
       << "/* Branch hint: inputs inside the table are the common case. */\n"
       << "#if defined(__GNUC__) || defined(__clang__)\n"
       << "#define " << S << "_LIKELY_(x) __builtin_expect(!!(x), 1)\n"
@@ -394,49 +392,33 @@ std::string c_header_text(const table_set& t, const provenance& p) {
       << "}\n\n";
 
     // ---- integer-only path (q15, linear law) --------------------------------
-    if (q15 && t.linear) {
-        // Integer axes: temperature in mK, pressure in Pa, rounded to whole units.
-        const std::int64_t t0 = round64(t.temperature.from * 1000.0);
-        const std::int64_t ts = std::max<std::int64_t>(2, round64(t.temperature.step() * 1000.0));
-        const std::int64_t p0 = round64(t.pressure.from);
-        const std::int64_t ps = std::max<std::int64_t>(2, round64(t.pressure.step()));
-        const auto inv_q32 = [](std::int64_t step) {
-            return static_cast<std::uint64_t>(std::llround(4294967296.0 / static_cast<double>(step)));
-        };
-        // K(T, P) = gain * c in reading units (ppb or mPa) per pA, fixed point 2^-shift.
-        const double per_pA = t.gain * 1.0e-12 * (t.partial_pressure ? 1.0e3 : 1.0e9);
-        const double c_hi = std::max(std::fabs(static_cast<double>(t.correction.offset)) +
-                                         std::fabs(static_cast<double>(t.correction.scale)),
-                                     1.0e-30);
-        int shift = 0;
-        while (shift < 46 && per_pA * c_hi * std::ldexp(1.0, shift + 1) < 1073741824.0) ++shift;
-        const std::int64_t k_off = round64(static_cast<double>(t.correction.offset) * per_pA * std::ldexp(1.0, shift));
-        const std::int64_t k_sc = round64(static_cast<double>(t.correction.scale) * per_pA * std::ldexp(1.0, shift));
-        const std::int64_t z_off = round64(static_cast<double>(t.zero.offset) * 1.0e12);
-        const std::int64_t z_sc = round64(static_cast<double>(t.zero.scale) * 1.0e12);
+    if (t.fixed.present) {
+        const fixed_path& f = t.fixed;
         o << "/* Integer-only path (no FPU, no floating point at all): temperature in mK,\n"
           << " * pressure in Pa, signal in pA; the reading in "
           << (t.partial_pressure ? "mPa" : "ppb (1e-9 mol/mol)") << ". The integer axes are the\n"
-          << " * float axes rounded to whole mK and Pa. 64-bit products where 32 bits could\n"
-          << " * overflow. */\n"
-          << "#define " << S << "_FIXED_T_FROM_MK " << i32(t0) << "\n"
-          << "#define " << S << "_FIXED_T_STEP_MK " << i32(ts) << "\n"
-          << "#define " << S << "_FIXED_T_INV_STEP_Q32 " << inv_q32(ts) << "u /* round(2^32 / step) */\n"
-          << "#define " << S << "_FIXED_P_FROM_PA " << i32(p0) << "\n"
-          << "#define " << S << "_FIXED_P_STEP_PA " << i32(ps) << "\n"
-          << "#define " << S << "_FIXED_P_INV_STEP_Q32 " << inv_q32(ps) << "u\n"
-          << "#define " << S << "_FIXED_GAIN_SHIFT " << shift << "\n"
-          << "#define " << S << "_FIXED_GAIN_OFFSET " << k_off << "LL /* gain * c per pA, times 2^SHIFT */\n"
-          << "#define " << S << "_FIXED_GAIN_SCALE " << k_sc << "LL\n"
-          << "#define " << S << "_FIXED_ZERO_OFFSET_PA " << z_off << "LL /* I0 in pA */\n"
-          << "#define " << S << "_FIXED_ZERO_SCALE_PA " << z_sc << "LL\n\n"
+          << " * float axes' ends rounded to whole mK and Pa; the position in steps is\n"
+          << " * (x - FROM) * INV_STEP_Q32 / 2^32 with INV_STEP_Q32 = round(2^32 (COUNT - 1) / SPAN).\n"
+          << " * 64-bit products where 32 bits could overflow. Its own proven error (inputs,\n"
+          << " * constants and output quantised): " << format_number(100.0 * f.worst.error, 3) << " %. */\n"
+          << "#define " << S << "_FIXED_PROVEN_ERROR " << flt(f.worst.error) << "\n"
+          << "#define " << S << "_FIXED_T_FROM_MK " << i32(f.temperature.from) << "\n"
+          << "#define " << S << "_FIXED_T_SPAN_MK " << i32(f.temperature.span) << "\n"
+          << "#define " << S << "_FIXED_T_INV_STEP_Q32 " << f.temperature.inv_q32 << "u\n"
+          << "#define " << S << "_FIXED_P_FROM_PA " << i32(f.pressure.from) << "\n"
+          << "#define " << S << "_FIXED_P_SPAN_PA " << i32(f.pressure.span) << "\n"
+          << "#define " << S << "_FIXED_P_INV_STEP_Q32 " << f.pressure.inv_q32 << "u\n"
+          << "#define " << S << "_FIXED_GAIN_SHIFT " << f.shift << "\n"
+          << "#define " << S << "_FIXED_GAIN_OFFSET " << f.gain_offset << "LL /* gain * c per pA, times 2^SHIFT */\n"
+          << "#define " << S << "_FIXED_GAIN_SCALE " << f.gain_scale << "LL\n"
+          << "#define " << S << "_FIXED_ZERO_OFFSET_PA " << f.zero_offset_pA << "LL /* I0 in pA */\n"
+          << "#define " << S << "_FIXED_ZERO_SCALE_PA " << f.zero_scale_pA << "LL\n\n"
           << "/* Position on an integer axis: node index and Q15 fraction; clamps and flags. */\n"
-          << "static inline int32_t " << s << "_fixed_position_(int32_t x, int32_t from, int32_t step, uint32_t "
+          << "static inline int32_t " << s << "_fixed_position_(int32_t x, int32_t from, int32_t span, uint32_t "
           << "inv_q32,\n"
           << "                                              int32_t count, unsigned below, unsigned above,\n"
           << "                                              unsigned *flags, int32_t *fraction)\n"
           << "{\n"
-          << "    const int64_t span = (int64_t)step * (count - 1);\n"
           << "    int64_t d = (int64_t)x - from;\n"
           << "    uint32_t pos;\n"
           << "    int32_t i;\n"
@@ -455,12 +437,12 @@ std::string c_header_text(const table_set& t, const provenance& p) {
           << "    unsigned flags = 0u;\n"
           << "    int32_t ft, fp, a, b, q, zq;\n"
           << "    const int32_t it = " << s << "_fixed_position_(temperature_mK, " << S << "_FIXED_T_FROM_MK, " << S
-          << "_FIXED_T_STEP_MK,\n"
+          << "_FIXED_T_SPAN_MK,\n"
           << "        " << S << "_FIXED_T_INV_STEP_Q32, " << S << "_TEMPERATURE_COUNT, " << S
           << "_STATUS_TEMPERATURE_BELOW,\n"
           << "        " << S << "_STATUS_TEMPERATURE_ABOVE, &flags, &ft);\n"
           << "    const int32_t ip = " << s << "_fixed_position_(pressure_Pa, " << S << "_FIXED_P_FROM_PA, " << S
-          << "_FIXED_P_STEP_PA,\n"
+          << "_FIXED_P_SPAN_PA,\n"
           << "        " << S << "_FIXED_P_INV_STEP_Q32, " << S << "_PRESSURE_COUNT, " << S
           << "_STATUS_PRESSURE_BELOW,\n"
           << "        " << S << "_STATUS_PRESSURE_ABOVE, &flags, &fp);\n"
@@ -473,16 +455,16 @@ std::string c_header_text(const table_set& t, const provenance& p) {
           << "    k = " << S << "_FIXED_GAIN_OFFSET + ((" << S << "_FIXED_GAIN_SCALE * q) >> 15);\n"
           << "    zero = " << S << "_FIXED_ZERO_OFFSET_PA + ((" << S << "_FIXED_ZERO_SCALE_PA * zq) >> 15);\n"
           << "    r = ((int64_t)signal_pA - zero) * k;\n"
-          << (shift > 0 ? "    r = (r + ((int64_t)1 << (" + S + "_FIXED_GAIN_SHIFT - 1))) >> " + S +
-                              "_FIXED_GAIN_SHIFT; /* rounded */\n"
-                        : std::string())
+          << (f.shift > 0 ? "    r = (r + ((int64_t)1 << (" + S + "_FIXED_GAIN_SHIFT - 1))) >> " + S +
+                                "_FIXED_GAIN_SHIFT; /* rounded */\n"
+                          : std::string())
           << "    if (r > 2147483647) { r = 2147483647; flags |= " << S << "_STATUS_ABOVE_RANGE; }\n"
           << "    if (r < -2147483647) { r = -2147483647; flags |= " << S << "_STATUS_BELOW_RANGE; }\n"
           << "    if (status) *status = flags;\n"
           << "    return (int32_t)r;\n"
           << "}\n\n";
     }
-    o << "#endif /* " << S << "_H */\n";
+    o << "#endif /* COUNTERFLUX_GENERATED_" << S << "_H */\n";
     return o.str();
 }
 

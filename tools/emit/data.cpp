@@ -114,6 +114,10 @@ nlohmann::json json_document(const table_set& t, const provenance& p) {
                   {"readings", t.proof.reading_points},
                   {"reading_error_floor_of_full_scale", 0.1}};
     j["table_bytes"] = t.table_bytes();
+    if (t.fixed.present) {
+        j["max_fixed_point_error"] = t.fixed.worst.error;
+        j["fixed_point_output_unit"] = t.fixed.unit;
+    }
     return j;
 }
 

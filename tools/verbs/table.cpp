@@ -2,6 +2,7 @@
 // tables of a sensor design, their proven interpolation error, and the four
 // outputs (C header, CSV, JSON, binary record) of interfaces.md.
 #include <filesystem>
+#include <functional>
 #include <memory>
 #include <ostream>
 #include <sstream>
@@ -67,6 +68,48 @@ void write_plot(const std::filesystem::path& path, const table_set& t, double bo
     write_svg_plot(path, t.symbol + ": compensation tables", {span, error});
 }
 
+// Writes the four outputs as a set: every target is checked first (a regular
+// file or a new name; a directory, link or device there is refused and nothing is
+// written), the plot is drawn first (its own atomic write), then each output goes
+// to a staged name beside its target, and only when all are staged are they
+// renamed over their targets, one rename each. A failure before the renames
+// removes what was staged and leaves every target as it was.
+void write_set(const std::filesystem::path& dir, const std::filesystem::file_status& dir_status,
+               const std::string& dir_text, const std::vector<std::pair<std::filesystem::path, std::string>>& files,
+               const std::function<void()>& plot) {
+    namespace fs = std::filesystem;
+    std::error_code ec;
+    for (const auto& fl : files) {
+        const auto ts = fs::symlink_status(fl.first, ec);
+        if (fs::exists(ts) && !fs::is_regular_file(ts))
+            throw flag_error("--out", fl.first.string() + " exists and is not a regular file; nothing was written");
+    }
+    if (!fs::exists(dir_status)) {
+        fs::create_directories(dir, ec);
+        if (ec) throw run_error(dir_text + ": cannot create the directory: " + ec.message());
+    }
+    plot();
+    std::vector<fs::path> staged;
+    try {
+        for (const auto& fl : files) {
+            const fs::path s = fl.first.parent_path() / ("." + fl.first.filename().string() + ".staged");
+            atomic_write(s, fl.second);
+            staged.push_back(s);
+        }
+    } catch (...) {
+        for (const auto& s : staged) fs::remove(s, ec);
+        throw;
+    }
+    for (std::size_t i = 0; i < files.size(); ++i) {
+        fs::rename(staged[i], files[i].first, ec);
+        if (ec) {
+            for (std::size_t k = i; k < staged.size(); ++k) fs::remove(staged[k], ec);
+            throw run_error(files[i].first.string() + ": cannot replace it: " + ec.message() +
+                            (i > 0 ? " (the outputs before it were replaced)" : ""));
+        }
+    }
+}
+
 }  // namespace
 
 int run_table(const table_options& o, std::ostream& out) {
@@ -113,12 +156,9 @@ int run_table(const table_options& o, std::ostream& out) {
         if (o.svg) names.push_back(*o.svg);
         doc["files"] = names;
         files[2].second = json_text(doc);
-        if (!std::filesystem::exists(st)) {
-            std::filesystem::create_directories(dir, ec);
-            if (ec) throw run_error(o.out + ": cannot create the directory: " + ec.message());
-        }
-        for (const auto& fl : files) atomic_write(fl.first, fl.second);
-        if (o.svg) write_plot(*o.svg, t, bound);
+        write_set(dir, st, o.out, files, [&] {
+            if (o.svg) write_plot(*o.svg, t, bound);
+        });
     } else {
         doc["files"] = nlohmann::json::array();
     }
@@ -134,6 +174,8 @@ int run_table(const table_options& o, std::ostream& out) {
                                   {"values", t.values},
                                   {"axes", doc["axes"]},
                                   {"linear", t.linear},
+                                  {"max_fixed_point_error", t.fixed.present ? nlohmann::json(t.fixed.worst.error)
+                                                                            : nlohmann::json()},
                                   {"files", doc["files"]}};
         out << json_text(summary);
     } else {
@@ -169,6 +211,10 @@ int run_table(const table_options& o, std::ostream& out) {
           << "              against the full model at " << t.proof.condition_points << " conditions ("
           << t.proof.fine_t << " x " << t.proof.fine_p << ", every cell centre, ten times finer) and "
           << t.proof.reading_points << " readings from 0 to full scale\n";
+        if (t.fixed.present)
+            r << "  integer     " << t.symbol << "_reading_fixed (pA, mK, Pa in; "
+              << (t.partial_pressure ? "mPa" : "ppb") << " out): " << percent(t.fixed.worst.error)
+              << ", its quantisation included (reported, not held to the bound)\n";
         if (met) {
             r << "  wrote       ";
             for (std::size_t i = 0; i < files.size(); ++i) r << (i ? ", " : "") << files[i].first.string();
