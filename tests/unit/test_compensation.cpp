@@ -612,3 +612,67 @@ TEST_CASE_TEMPLATE("compensation: the compact object's edge path matches its vie
         }
     CHECK(mismatches == 0);
 }
+
+TEST_CASE("compensation: a 3 x 6 float object reads its last pressure node at the requested end") {
+    float corr[18] = {}, zero[3] = {};
+    for (std::size_t i = 0; i < 18; ++i) corr[i] = 1.0f + 0.01f * static_cast<float>(i);
+    for (std::size_t i = 0; i < 3; ++i) zero[i] = 1e-9f * static_cast<float>(i + 1u);
+    const cf::compensation<float, 3, 6> c =
+        cf::make_compensation<float, 3, 6>(253.15f, 323.15f, 50000.f, 130000.f, corr, zero, 1000.f);
+    const float s = 5e-7f;
+    const cf::result<float> a = cf::reading(c, s, 253.15f, 130000.0f);
+    CHECK(a.code == cf::status::ok);
+    CHECK(a.value == (s - zero[0]) * 1000.f * corr[5]);
+    const cf::result<float> b = cf::reading(c, s, 323.15f, 130000.0f);
+    CHECK(b.code == cf::status::ok);
+    CHECK(b.value == (s - zero[2]) * 1000.f * corr[17]);
+    const cf::result<float> v = cf::reading(c.ref(), s, 323.15f, 130000.0f);
+    CHECK(v.code == b.code);
+    CHECK(v.value == b.value);
+}
+
+TEST_CASE_TEMPLATE("compensation: random grids read their last nodes exactly, object and view alike", T, float,
+                   double) {
+    std::mt19937 rng(7331u);
+    std::uniform_real_distribution<double> u(0.0, 1.0);
+    constexpr std::size_t nt = 3, np = 6;
+    T corr[nt * np] = {}, zero[nt] = {};
+    for (std::size_t i = 0; i < nt * np; ++i) corr[i] = T(1) + T(0.01) * static_cast<T>(i);
+    for (std::size_t i = 0; i < nt; ++i) zero[i] = T(1e-9) * static_cast<T>(i + 1u);
+    const T s = T(5e-7), g = T(1000);
+    for (int k = 0; k < 3000; ++k) {
+        const T t_from = static_cast<T>(200.0 + 100.0 * u(rng));
+        const T t_to = static_cast<T>(static_cast<double>(t_from) + 5.0 + 100.0 * u(rng));
+        const T p_from = static_cast<T>(k % 3 == 0 ? -(1.0 + 1e4 * u(rng)) : 1e4 + 1e5 * u(rng));
+        const T p_to = static_cast<T>(static_cast<double>(p_from) + 1e3 + 1e5 * u(rng));
+        const cf::compensation<T, nt, np> c =
+            cf::make_compensation<T, nt, np>(t_from, t_to, p_from, p_to, corr, zero, g);
+        CAPTURE(t_from);
+        CAPTURE(t_to);
+        CAPTURE(p_from);
+        CAPTURE(p_to);
+        const cf::result<T> a = cf::reading(c, s, t_to, p_to);
+        CHECK(a.code == cf::status::ok);
+        CHECK(a.value == (s - zero[nt - 1u]) * g * corr[nt * np - 1u]);
+        const cf::result<T> b = cf::reading(c, s, t_from, p_to);
+        CHECK(b.code == cf::status::ok);
+        CHECK(b.value == (s - zero[0]) * g * corr[np - 1u]);
+        const cf::result<T> ra = cf::reading(c.ref(), s, t_to, p_to);
+        CHECK(ra.code == a.code);
+        CHECK(ra.value == a.value);
+    }
+}
+
+TEST_CASE_TEMPLATE("compensation: a degenerate or descending grid flags out_of_domain", T, float, double) {
+    const T corr[4] = {T(1), T(1), T(1), T(1)}, zero[2] = {T(0), T(0)};
+    const cf::compensation<T, 2, 2> flat =
+        cf::make_compensation<T, 2, 2>(T(300), T(300), T(70000), T(110000), corr, zero, T(1000));
+    const cf::compensation<T, 2, 2> down =
+        cf::make_compensation<T, 2, 2>(T(250), T(330), T(110000), T(70000), corr, zero, T(1000));
+    for (const T t : {T(250), T(300), T(320)}) {
+        CHECK(cf::has(cf::reading(flat, T(1e-6), t, T(90000)).code, cf::status::out_of_domain));
+        CHECK(cf::has(cf::reading(flat.ref(), T(1e-6), t, T(90000)).code, cf::status::out_of_domain));
+        CHECK(cf::has(cf::reading(down, T(1e-6), t, T(90000)).code, cf::status::out_of_domain));
+        CHECK(cf::has(cf::reading(down.ref(), T(1e-6), t, T(90000)).code, cf::status::out_of_domain));
+    }
+}
