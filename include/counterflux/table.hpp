@@ -575,10 +575,13 @@ struct q15_axis {
 /// The integer axis of count nodes from origin in steps of step. count is set to
 /// 0 (invalid) when step < 2, count < 2 or the last node does not fit int32.
 constexpr q15_axis make_q15_axis(std::int32_t origin, std::int32_t step, std::size_t count) noexcept {
-    const std::int64_t last = static_cast<std::int64_t>(origin) +
-                              static_cast<std::int64_t>(step) * static_cast<std::int64_t>(count > 0u ? count - 1u : 0u);
-    const bool valid = step >= 2 && count >= 2u && count <= std::size_t(0x7fffffff) &&
-                       last <= std::int64_t(std::numeric_limits<std::int32_t>::max());
+    // The count is checked before it is multiplied: step < 2^31 and count - 1 < 2^31,
+    // so the last node is exact in int64.
+    const bool shape = step >= 2 && count >= 2u && count <= std::size_t(0x7fffffff);
+    const std::int64_t last =
+        shape ? static_cast<std::int64_t>(origin) + static_cast<std::int64_t>(step) * static_cast<std::int64_t>(count - 1u)
+              : std::int64_t(0);
+    const bool valid = shape && last <= std::int64_t(std::numeric_limits<std::int32_t>::max());
     const std::uint64_t two32 = std::uint64_t(1) << 32;
     const std::uint32_t inv =
         step >= 2 ? static_cast<std::uint32_t>((two32 + static_cast<std::uint64_t>(step) / 2u) /
@@ -602,10 +605,14 @@ namespace detail {
 /// the Q31 inverse gives the fraction, within 1/2 + step / 2^16 Q15 counts.
 constexpr q15_position q15_locate(const q15_axis& a, std::int32_t x, status below_flag, status above_flag) noexcept {
     const std::size_t last_cell = a.count - 2u;
-    const std::int32_t last = a.origin + a.step * static_cast<std::int32_t>(last_cell + 1u);  // fits: see make_q15_axis
     if (x <= a.origin) return {0u, 0, axis_flags(x < a.origin, false, false, below_flag, above_flag)};
-    if (x >= last) return {last_cell, 32768, axis_flags(false, x > last, false, below_flag, above_flag)};
-    // 0 < d < step * (count - 1) < 2^31: unsigned arithmetic, no overflow.
+    // The last node in int64: origin + step * (count - 1) fits int32 (make_q15_axis),
+    // but the product alone need not (origin -2e9, step 1e9, 4 nodes).
+    const std::int64_t last = static_cast<std::int64_t>(a.origin) +
+                              static_cast<std::int64_t>(a.step) * static_cast<std::int64_t>(last_cell + 1u);
+    const std::int64_t x64 = x;
+    if (x64 >= last) return {last_cell, 32768, axis_flags(false, x64 > last, false, below_flag, above_flag)};
+    // 0 < d < last - origin < 2^32: unsigned arithmetic, no overflow.
     const std::uint32_t d = static_cast<std::uint32_t>(x) - static_cast<std::uint32_t>(a.origin);
     const std::uint32_t step = static_cast<std::uint32_t>(a.step);
     // d / step + at most 1/4 (the rounding of inv_step_q32 times d < 2^31): floor is off by at most one.
@@ -712,8 +719,11 @@ struct q15_table_1d {
     q15_axis axis;                       ///< integer axis (count == N)
     std::array<std::int16_t, N> values;  ///< q15 value at each node
 
-    /// The interpolated value at x, in q15 counts (see q15_interpolate_1d).
+    /// The interpolated value at x, in q15 counts (see q15_interpolate_1d). The
+    /// size N bounds the reads: an axis whose count is not N reads nothing and
+    /// gives out_of_domain (its last node is only validated for its own count).
     constexpr result<std::int16_t> operator()(std::int32_t x) const noexcept {
+        if (axis.count != N) return {std::int16_t(0), status::out_of_domain};
         return q15_interpolate_1d(axis, values.data(), x);
     }
 };
@@ -727,7 +737,10 @@ struct q15_table_2d {
     std::array<std::int16_t, N0 * N1> values;  ///< row-major q15 values
 
     /// The interpolated value at (x0, x1), in q15 counts (see q15_interpolate_2d).
+    /// The sizes N0, N1 bound the reads: axes whose counts are not N0 and N1 read
+    /// nothing and give out_of_domain.
     constexpr result<std::int16_t> operator()(std::int32_t x0, std::int32_t x1) const noexcept {
+        if (axis0.count != N0 || axis1.count != N1) return {std::int16_t(0), status::out_of_domain};
         return q15_interpolate_2d(axis0, axis1, values.data(), x0, x1);
     }
 };

@@ -676,3 +676,16 @@ TEST_CASE_TEMPLATE("compensation: a degenerate or descending grid flags out_of_d
         CHECK(cf::has(cf::reading(down.ref(), T(1e-6), t, T(90000)).code, cf::status::out_of_domain));
     }
 }
+
+TEST_CASE("compensation: the curved view is bounded by NH, not by the shape axis count") {
+    const double corr[4] = {1, 1, 1, 1}, zero[2] = {0, 0};
+    cf::curved_compensation<double, 2, 2, 3> cur{};
+    cur.linear = cf::make_compensation<double, 2, 2>(250, 330, 70000, 110000, corr, zero, 1000);
+    cur.curvature = cf::make_table_2d<double, 2, 2>(250, 330, 70000, 110000, {1, 1, 1, 1});
+    cur.shape = cf::make_table_1d<double, 3>(0, 1, {1, 0.8, 0.6});
+    cur.shape.axis.count = 50;  // a mismatched count must not widen the reads
+    CHECK(cur.ref().shape_axis.count == 3u);
+    const cf::result<double> r = cf::reading(cur, 1e-2, 300.0, 90000.0);  // gamma w = 10: far above the axis
+    CHECK(r.value == 10.0 * 0.6);
+    CHECK(cf::has(r.code, cf::status::above_range));
+}

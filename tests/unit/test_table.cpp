@@ -601,3 +601,30 @@ TEST_CASE_TEMPLATE("table: a degenerate or descending axis flags out_of_domain",
     const cf::compact_table_2d<T, 2, 2> t = cf::make_compact_table_2d<T, 2, 2>(T(5), T(5), T(0), T(1), vals);
     CHECK(cf::has(t(T(5), T(0.5)).code, cf::status::out_of_domain));
 }
+
+TEST_CASE("q15: an axis whose step times its cells overflows int32 is read without overflow") {
+    constexpr cf::q15_axis a = cf::make_q15_axis(-2000000000, 1000000000, 4);
+    static_assert(a.count == 4u, "the last node 1e9 fits int32");
+    constexpr std::int16_t q[4] = {100, 200, 300, 400};
+    constexpr cf::result<std::int16_t> last = cf::q15_interpolate_1d(a, q, 1000000000);
+    static_assert(last.value == 400 && last.code == cf::status::ok, "the last node exactly");
+    constexpr cf::result<std::int16_t> above = cf::q15_interpolate_1d(a, q, 2000000000);
+    static_assert(above.value == 400, "clamped to the last node");
+    CHECK(above.code == (cf::status::first_axis_above | cf::status::above_range));
+    CHECK(cf::q15_interpolate_1d(a, q, -1000000000).value == 200);  // nodes exactly (the fraction is coarse at this step)
+    CHECK(cf::q15_interpolate_1d(a, q, 0).value == 300);
+    // Too many nodes for int32: invalid, without overflow in the check.
+    static_assert(cf::make_q15_axis(0, 1000000000, 4).count == 0u, "last node 3e9 does not fit");
+    static_assert(cf::make_q15_axis(0, 2, std::size_t(0x80000000u)).count == 0u, "count above 2^31 - 1");
+}
+
+TEST_CASE("q15: fixed-size tables are bounded by their size, not by the axis count") {
+    const cf::q15_table_1d<3> t{cf::make_q15_axis(0, 100, 10), {{1, 2, 3}}};
+    CHECK(t(850).code == cf::status::out_of_domain);
+    CHECK(t(50).code == cf::status::out_of_domain);
+    const cf::q15_table_2d<2, 2> t2{cf::make_q15_axis(0, 100, 2), cf::make_q15_axis(0, 100, 9), {{1, 2, 3, 4}}};
+    CHECK(t2(50, 750).code == cf::status::out_of_domain);
+    const cf::q15_table_1d<3> ok = cf::make_q15_table_1d<3>(0, 100, {10, 20, 30});
+    CHECK(ok(200).value == 30);
+    CHECK(ok(200).code == cf::status::ok);
+}
