@@ -635,29 +635,29 @@ TEST_CASE_TEMPLATE("compensation: random grids read their last nodes exactly, ob
                    double) {
     std::mt19937 rng(7331u);
     std::uniform_real_distribution<double> u(0.0, 1.0);
-    constexpr std::size_t nt = 3, np = 6;
-    T corr[nt * np] = {}, zero[nt] = {};
-    for (std::size_t i = 0; i < nt * np; ++i) corr[i] = T(1) + T(0.01) * static_cast<T>(i);
-    for (std::size_t i = 0; i < nt; ++i) zero[i] = T(1e-9) * static_cast<T>(i + 1u);
+    constexpr std::size_t n0 = 3, n1 = 6;
+    T corr[n0 * n1] = {}, zero[n0] = {};
+    for (std::size_t i = 0; i < n0 * n1; ++i) corr[i] = T(1) + T(0.01) * static_cast<T>(i);
+    for (std::size_t i = 0; i < n0; ++i) zero[i] = T(1e-9) * static_cast<T>(i + 1u);
     const T s = T(5e-7), g = T(1000);
     for (int k = 0; k < 3000; ++k) {
-        const T t_from = static_cast<T>(200.0 + 100.0 * u(rng));
-        const T t_to = static_cast<T>(static_cast<double>(t_from) + 5.0 + 100.0 * u(rng));
-        const T p_from = static_cast<T>(k % 3 == 0 ? -(1.0 + 1e4 * u(rng)) : 1e4 + 1e5 * u(rng));
-        const T p_to = static_cast<T>(static_cast<double>(p_from) + 1e3 + 1e5 * u(rng));
-        const cf::compensation<T, nt, np> c =
-            cf::make_compensation<T, nt, np>(t_from, t_to, p_from, p_to, corr, zero, g);
-        CAPTURE(t_from);
-        CAPTURE(t_to);
-        CAPTURE(p_from);
-        CAPTURE(p_to);
-        const cf::result<T> a = cf::reading(c, s, t_to, p_to);
+        const T rt_from = static_cast<T>(200.0 + 100.0 * u(rng));
+        const T rt_to = static_cast<T>(static_cast<double>(rt_from) + 5.0 + 100.0 * u(rng));
+        const T rp_from = static_cast<T>(k % 3 == 0 ? -(1.0 + 1e4 * u(rng)) : 1e4 + 1e5 * u(rng));
+        const T rp_to = static_cast<T>(static_cast<double>(rp_from) + 1e3 + 1e5 * u(rng));
+        const cf::compensation<T, n0, n1> c =
+            cf::make_compensation<T, n0, n1>(rt_from, rt_to, rp_from, rp_to, corr, zero, g);
+        CAPTURE(rt_from);
+        CAPTURE(rt_to);
+        CAPTURE(rp_from);
+        CAPTURE(rp_to);
+        const cf::result<T> a = cf::reading(c, s, rt_to, rp_to);
         CHECK(a.code == cf::status::ok);
-        CHECK(a.value == (s - zero[nt - 1u]) * g * corr[nt * np - 1u]);
-        const cf::result<T> b = cf::reading(c, s, t_from, p_to);
+        CHECK(a.value == (s - zero[n0 - 1u]) * g * corr[n0 * n1 - 1u]);
+        const cf::result<T> b = cf::reading(c, s, rt_from, rp_to);
         CHECK(b.code == cf::status::ok);
-        CHECK(b.value == (s - zero[0]) * g * corr[np - 1u]);
-        const cf::result<T> ra = cf::reading(c.ref(), s, t_to, p_to);
+        CHECK(b.value == (s - zero[0]) * g * corr[n1 - 1u]);
+        const cf::result<T> ra = cf::reading(c.ref(), s, rt_to, rp_to);
         CHECK(ra.code == a.code);
         CHECK(ra.value == a.value);
     }
