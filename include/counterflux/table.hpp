@@ -17,6 +17,11 @@
 //     origin clamp to the first node, they never extrapolate from cell 0;
 //   - the last node is reachable: x at or beyond the last node gives index
 //     count - 2 with fraction exactly 1, so the value is exactly the last node's;
+//     "at" includes x within 8 eps (|origin| + |last|) of the derived last node
+//     (which may miss the requested end by rounding), unflagged, so x = `to`
+//     always reads the last node; above_range only beyond that tolerance;
+//   - an axis that is not ascending (inv_step not > 0: from == to, to < from)
+//     reads with out_of_domain;
 //   - out-of-range inputs clamp to the edge and set the axis flag
 //     (first_axis_below / first_axis_above for axis 0 = temperature,
 //     second_axis_below / second_axis_above for axis 1 = pressure) together with
@@ -248,7 +253,8 @@ template <class T>
 }
 
 /// Bits of a packed edge cell (locate_compact_cell): the cell index below bit 15 (so
-/// at most 32767 cells), bit 15 set at or beyond the last node, the status above.
+/// at most 32767 cells), bit 15 set at (within the edge tolerance) or beyond the
+/// last node, the status above.
 inline constexpr std::uint32_t packed_index_mask = 0x7fffu;
 inline constexpr std::uint32_t packed_at_last = 0x8000u;  ///< x at or beyond the last node: fraction exactly 1
 inline constexpr unsigned packed_status_shift = 16u;      ///< the status sits in bits 16 .. 31
