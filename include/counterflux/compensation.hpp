@@ -263,7 +263,8 @@ struct curved_compensation {
     /// The size-erased view of these tables.
     constexpr compensation_ref<T> ref() const noexcept {
         compensation_ref<T> r = linear.ref();
-        r.shape_axis = shape.axis;
+        // NH, not shape.axis.count, bounds the reads of the shape values.
+        r.shape_axis = uniform_axis<T>{shape.axis.origin, shape.axis.step, shape.axis.inv_step, NH};
         r.curvature = curvature.values.data();
         r.shape = shape.values.data();
         return r;

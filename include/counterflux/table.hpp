@@ -17,6 +17,11 @@
 //     origin clamp to the first node, they never extrapolate from cell 0;
 //   - the last node is reachable: x at or beyond the last node gives index
 //     count - 2 with fraction exactly 1, so the value is exactly the last node's;
+//     "at" includes x within 8 eps (|origin| + |last|) of the derived last node
+//     (which may miss the requested end by rounding), unflagged, so x = `to`
+//     always reads the last node; above_range only beyond that tolerance;
+//   - an axis that is not ascending (inv_step not > 0: from == to, to < from)
+//     reads with out_of_domain;
 //   - out-of-range inputs clamp to the edge and set the axis flag
 //     (first_axis_below / first_axis_above for axis 0 = temperature,
 //     second_axis_below / second_axis_above for axis 1 = pressure) together with
@@ -47,13 +52,16 @@ template <class T>
 struct uniform_axis {
     T origin;           ///< first node, in the unit of the axis (K, Pa, ...)
     T step;             ///< node spacing, unit of the axis
-    T inv_step;         ///< 1 / step (0 for a degenerate axis with step 0)
+    T inv_step;         ///< 1 / step; 0 (or any value not > 0) marks an axis every lookup flags out_of_domain
     std::size_t count;  ///< number of nodes, >= 2
 };
 
 /// The axis of count nodes from `from` to `to` (count < 2 is raised to 2). The
 /// step is (to - from) / (count - 1), nudged by at most an ulp where that makes
-/// the last node equal `to` exactly; inv_step = 1 / step (0 when from == to).
+/// the last node equal `to` exactly; inv_step = 1 / step, or 0 unless to > from
+/// (a degenerate or descending axis: every lookup on it flags out_of_domain).
+/// Where no step hits `to` exactly, x within the edge tolerance of the last node
+/// (detail::edge_tolerance) reads the last node: x = `to` always does.
 template <class T>
 constexpr uniform_axis<T> make_uniform_axis(T from, T to, std::size_t count) noexcept {
     const std::size_t n = count < 2u ? std::size_t(2) : count;
@@ -67,7 +75,9 @@ constexpr uniform_axis<T> make_uniform_axis(T from, T to, std::size_t count) noe
         for (const T c : candidates)
             if (from + cells * c == to) { step = c; break; }
     }
-    const T inv = step != T(0) ? T(1) / step : T(0);
+    // Only an ascending axis gets a reciprocal: from == to, to < from or a NaN end
+    // leave inv_step 0, which every lookup flags out_of_domain.
+    const T inv = step > T(0) ? T(1) / step : T(0);
     return uniform_axis<T>{from, step, detail::finite(inv) ? inv : T(0), n};
 }
 
@@ -137,7 +147,8 @@ template <class T>
     return at_last ? T(1) : f;          // the last node exactly, whatever t rounded to
 }
 
-/// The flags of an edge input x on an axis from origin to last.
+/// The flags of an edge input x on an axis from origin to last (last already
+/// widened by the edge tolerance).
 template <class T>
 [[gnu::always_inline]] constexpr status edge_flags(T x, T origin, T last, status below_flag,
                                                    status above_flag) noexcept {
@@ -146,15 +157,32 @@ template <class T>
     return axis_flags(x < origin, x > last, not_finite_x, below_flag, above_flag);
 }
 
+/// How far x may lie from the derived last node origin + cells * step and still
+/// count as AT it: 8 eps (|origin| + |last|). The derived last node carries the
+/// rounding of the step (or of 1 / inv_step) and of the sum, a few ulps of the
+/// larger end, so it can miss the requested `to` on either side; within this
+/// tolerance x reads the last node exactly and sets no flag. Each end is scaled
+/// apart, so the sum cannot overflow.
+template <class T>
+[[gnu::always_inline]] constexpr T edge_tolerance(T origin, T last) noexcept {
+    const T c = T(8) * std::numeric_limits<T>::epsilon();
+    return c * (origin < T(0) ? -origin : origin) + c * (last < T(0) ? -last : last);
+}
+
 /// locate() for the inputs its fast path does not take: at or beyond an edge,
-/// or not finite. Clamps and flags; branch-free selects.
+/// not finite, or on an axis that is not ascending (inv_step not > 0, flagged
+/// out_of_domain). Clamps and flags; branch-free selects. x within the edge
+/// tolerance of the last node is at it: the last cell with fraction exactly 1.
 template <class T>
 constexpr axis_position<T> locate_edge(T x, T t, T top, T last, std::ptrdiff_t cells, status below_flag,
-                                       status above_flag, T origin) noexcept {
-    t = clamp_position(t, top);
+                                       status above_flag, T origin, T inv_step) noexcept {
+    const T tol = edge_tolerance(origin, last);
+    const bool at_last = x >= last - tol;
+    t = at_last ? top : clamp_position(t, top);  // top - (cells - 1) is exactly 1
     const std::ptrdiff_t i = clamped_cell(t, cells);
-    return axis_position<T>{static_cast<std::size_t>(i), clamped_fraction(t, i, x >= last),
-                            edge_flags(x, origin, last, below_flag, above_flag)};
+    const status code = edge_flags(x, origin, last + tol, below_flag, above_flag);
+    return axis_position<T>{static_cast<std::size_t>(i), t - static_cast<T>(i),
+                            inv_step > T(0) ? code : code | status::out_of_domain};
 }
 
 }  // namespace detail
@@ -170,15 +198,17 @@ template <class T>
 }
 
 /// True when position t is strictly inside an axis of `cells` cells, far enough from
-/// the last node that x is surely below it. x - origin >= 0 exactly when x >= origin,
-/// so t >= 0 is the lower edge test (NaN fails it). At the upper edge t carries the
+/// the last node that x is surely below it. x - origin > 0 exactly when x > origin,
+/// so t > 0 is the lower edge test (NaN fails it, and so does every x on an axis
+/// with inv_step 0, which the edge path flags; x at the origin reads the same
+/// there). At the upper edge t carries the
 /// rounding of x - origin, of inv_step and of the last node (a few eps relative): t
 /// below top (1 - 8 eps) is surely below the last node, and the few inputs closer to
 /// it take the exact test on x in locate_edge.
 template <class T>
 [[gnu::always_inline]] constexpr bool inside(T t, std::ptrdiff_t cells) noexcept {
     const T top = static_cast<T>(cells);
-    return t >= T(0) && t < top - top * (T(8) * std::numeric_limits<T>::epsilon());
+    return t > T(0) && t < top - top * (T(8) * std::numeric_limits<T>::epsilon());
 }
 
 /// The cell and fraction of a position t that is inside().
@@ -194,7 +224,7 @@ constexpr axis_position<T> locate_cells(const uniform_axis<T>& a, std::ptrdiff_t
     const T t = position(a, x);
     if (inside(t, cells)) return position_inside(t);  // the fast path, for x strictly inside
     const T top = static_cast<T>(cells);
-    return locate_edge(x, t, top, a.origin + top * a.step, cells, below_flag, above_flag, a.origin);
+    return locate_edge(x, t, top, a.origin + top * a.step, cells, below_flag, above_flag, a.origin, a.inv_step);
 }
 
 /// The cells of a runtime-sized axis: count - 1, at least 1.
@@ -212,7 +242,8 @@ template <class T>
                                                                    std::ptrdiff_t cells, status below_flag,
                                                                    status above_flag) noexcept {
     const T top = static_cast<T>(cells);
-    return locate_edge(x, (x - origin) * inv_step, top, origin + top * step, cells, below_flag, above_flag, origin);
+    return locate_edge(x, (x - origin) * inv_step, top, origin + top * step, cells, below_flag, above_flag, origin,
+                       inv_step);
 }
 
 template <class T>
@@ -222,7 +253,8 @@ template <class T>
 }
 
 /// Bits of a packed edge cell (locate_compact_cell): the cell index below bit 15 (so
-/// at most 32767 cells), bit 15 set at or beyond the last node, the status above.
+/// at most 32767 cells), bit 15 set at (within the edge tolerance) or beyond the
+/// last node, the status above.
 inline constexpr std::uint32_t packed_index_mask = 0x7fffu;
 inline constexpr std::uint32_t packed_at_last = 0x8000u;  ///< x at or beyond the last node: fraction exactly 1
 inline constexpr unsigned packed_status_shift = 16u;      ///< the status sits in bits 16 .. 31
@@ -414,18 +446,21 @@ template <class T>
                                                               std::ptrdiff_t cells, std::uint32_t flags) noexcept {
     const T top = static_cast<T>(cells);
     const T last = origin + top * step_from_inverse(inv_step);
-    const T t = clamp_position((x - origin) * inv_step, top);
+    const T tol = edge_tolerance(origin, last);  // as locate_edge
+    const bool at_last = x >= last - tol;
+    const T t = at_last ? top : clamp_position((x - origin) * inv_step, top);
     const std::ptrdiff_t i = clamped_cell(t, cells);
     // edge_flags as masks, selected without branches.
     const std::uint32_t below = x < origin ? (flags & 0xffffu) | std::uint32_t(status::below_range) : 0u;
-    const std::uint32_t above = x > last ? (flags >> 16) | std::uint32_t(status::above_range) : 0u;
+    const std::uint32_t above = x > last + tol ? (flags >> 16) | std::uint32_t(status::above_range) : 0u;
     const T magnitude = x < T(0) ? -x : x;  // NaN stays NaN and fails the test below
     const std::uint32_t not_finite_x =
         magnitude <= std::numeric_limits<T>::max() ? 0u : std::uint32_t(status::not_finite);
+    const std::uint32_t bad_axis = inv_step > T(0) ? 0u : std::uint32_t(status::out_of_domain);
     // At the top the clamped fraction is exactly 1 whatever x: t = top gives cell
     // cells - 1 and top - (cells - 1) = 1. So the bit spares the caller the upper clamp.
-    return static_cast<std::uint32_t>(i) | (x >= last || t >= top ? packed_at_last : 0u) |
-           ((below | above | not_finite_x) << packed_status_shift);
+    return static_cast<std::uint32_t>(i) | (t >= top ? packed_at_last : 0u) |
+           ((below | above | not_finite_x | bad_axis) << packed_status_shift);
 }
 
 }  // namespace detail
@@ -546,10 +581,13 @@ struct q15_axis {
 /// The integer axis of count nodes from origin in steps of step. count is set to
 /// 0 (invalid) when step < 2, count < 2 or the last node does not fit int32.
 constexpr q15_axis make_q15_axis(std::int32_t origin, std::int32_t step, std::size_t count) noexcept {
-    const std::int64_t last = static_cast<std::int64_t>(origin) +
-                              static_cast<std::int64_t>(step) * static_cast<std::int64_t>(count > 0u ? count - 1u : 0u);
-    const bool valid = step >= 2 && count >= 2u && count <= std::size_t(0x7fffffff) &&
-                       last <= std::int64_t(std::numeric_limits<std::int32_t>::max());
+    // The count is checked before it is multiplied: step < 2^31 and count - 1 < 2^31,
+    // so the last node is exact in int64.
+    const bool shape = step >= 2 && count >= 2u && count <= std::size_t(0x7fffffff);
+    const std::int64_t last =
+        shape ? static_cast<std::int64_t>(origin) + static_cast<std::int64_t>(step) * static_cast<std::int64_t>(count - 1u)
+              : std::int64_t(0);
+    const bool valid = shape && last <= std::int64_t(std::numeric_limits<std::int32_t>::max());
     const std::uint64_t two32 = std::uint64_t(1) << 32;
     const std::uint32_t inv =
         step >= 2 ? static_cast<std::uint32_t>((two32 + static_cast<std::uint64_t>(step) / 2u) /
@@ -573,10 +611,14 @@ namespace detail {
 /// the Q31 inverse gives the fraction, within 1/2 + step / 2^16 Q15 counts.
 constexpr q15_position q15_locate(const q15_axis& a, std::int32_t x, status below_flag, status above_flag) noexcept {
     const std::size_t last_cell = a.count - 2u;
-    const std::int32_t last = a.origin + a.step * static_cast<std::int32_t>(last_cell + 1u);  // fits: see make_q15_axis
     if (x <= a.origin) return {0u, 0, axis_flags(x < a.origin, false, false, below_flag, above_flag)};
-    if (x >= last) return {last_cell, 32768, axis_flags(false, x > last, false, below_flag, above_flag)};
-    // 0 < d < step * (count - 1) < 2^31: unsigned arithmetic, no overflow.
+    // The last node in int64: origin + step * (count - 1) fits int32 (make_q15_axis),
+    // but the product alone need not (origin -2e9, step 1e9, 4 nodes).
+    const std::int64_t last = static_cast<std::int64_t>(a.origin) +
+                              static_cast<std::int64_t>(a.step) * static_cast<std::int64_t>(last_cell + 1u);
+    const std::int64_t x64 = x;
+    if (x64 >= last) return {last_cell, 32768, axis_flags(false, x64 > last, false, below_flag, above_flag)};
+    // 0 < d < last - origin < 2^32: unsigned arithmetic, no overflow.
     const std::uint32_t d = static_cast<std::uint32_t>(x) - static_cast<std::uint32_t>(a.origin);
     const std::uint32_t step = static_cast<std::uint32_t>(a.step);
     // d / step + at most 1/4 (the rounding of inv_step_q32 times d < 2^31): floor is off by at most one.
@@ -683,8 +725,11 @@ struct q15_table_1d {
     q15_axis axis;                       ///< integer axis (count == N)
     std::array<std::int16_t, N> values;  ///< q15 value at each node
 
-    /// The interpolated value at x, in q15 counts (see q15_interpolate_1d).
+    /// The interpolated value at x, in q15 counts (see q15_interpolate_1d). The
+    /// size N bounds the reads: an axis whose count is not N reads nothing and
+    /// gives out_of_domain (its last node is only validated for its own count).
     constexpr result<std::int16_t> operator()(std::int32_t x) const noexcept {
+        if (axis.count != N) return {std::int16_t(0), status::out_of_domain};
         return q15_interpolate_1d(axis, values.data(), x);
     }
 };
@@ -698,7 +743,10 @@ struct q15_table_2d {
     std::array<std::int16_t, N0 * N1> values;  ///< row-major q15 values
 
     /// The interpolated value at (x0, x1), in q15 counts (see q15_interpolate_2d).
+    /// The sizes N0, N1 bound the reads: axes whose counts are not N0 and N1 read
+    /// nothing and give out_of_domain.
     constexpr result<std::int16_t> operator()(std::int32_t x0, std::int32_t x1) const noexcept {
+        if (axis0.count != N0 || axis1.count != N1) return {std::int16_t(0), status::out_of_domain};
         return q15_interpolate_2d(axis0, axis1, values.data(), x0, x1);
     }
 };

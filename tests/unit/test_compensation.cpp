@@ -612,3 +612,80 @@ TEST_CASE_TEMPLATE("compensation: the compact object's edge path matches its vie
         }
     CHECK(mismatches == 0);
 }
+
+TEST_CASE("compensation: a 3 x 6 float object reads its last pressure node at the requested end") {
+    float corr[18] = {}, zero[3] = {};
+    for (std::size_t i = 0; i < 18; ++i) corr[i] = 1.0f + 0.01f * static_cast<float>(i);
+    for (std::size_t i = 0; i < 3; ++i) zero[i] = 1e-9f * static_cast<float>(i + 1u);
+    const cf::compensation<float, 3, 6> c =
+        cf::make_compensation<float, 3, 6>(253.15f, 323.15f, 50000.f, 130000.f, corr, zero, 1000.f);
+    const float s = 5e-7f;
+    const cf::result<float> a = cf::reading(c, s, 253.15f, 130000.0f);
+    CHECK(a.code == cf::status::ok);
+    CHECK(a.value == (s - zero[0]) * 1000.f * corr[5]);
+    const cf::result<float> b = cf::reading(c, s, 323.15f, 130000.0f);
+    CHECK(b.code == cf::status::ok);
+    CHECK(b.value == (s - zero[2]) * 1000.f * corr[17]);
+    const cf::result<float> v = cf::reading(c.ref(), s, 323.15f, 130000.0f);
+    CHECK(v.code == b.code);
+    CHECK(v.value == b.value);
+}
+
+TEST_CASE_TEMPLATE("compensation: random grids read their last nodes exactly, object and view alike", T, float,
+                   double) {
+    std::mt19937 rng(7331u);
+    std::uniform_real_distribution<double> u(0.0, 1.0);
+    constexpr std::size_t n0 = 3, n1 = 6;
+    T corr[n0 * n1] = {}, zero[n0] = {};
+    for (std::size_t i = 0; i < n0 * n1; ++i) corr[i] = T(1) + T(0.01) * static_cast<T>(i);
+    for (std::size_t i = 0; i < n0; ++i) zero[i] = T(1e-9) * static_cast<T>(i + 1u);
+    const T s = T(5e-7), g = T(1000);
+    for (int k = 0; k < 3000; ++k) {
+        const T rt_from = static_cast<T>(200.0 + 100.0 * u(rng));
+        const T rt_to = static_cast<T>(static_cast<double>(rt_from) + 5.0 + 100.0 * u(rng));
+        const T rp_from = static_cast<T>(k % 3 == 0 ? -(1.0 + 1e4 * u(rng)) : 1e4 + 1e5 * u(rng));
+        const T rp_to = static_cast<T>(static_cast<double>(rp_from) + 1e3 + 1e5 * u(rng));
+        const cf::compensation<T, n0, n1> c =
+            cf::make_compensation<T, n0, n1>(rt_from, rt_to, rp_from, rp_to, corr, zero, g);
+        CAPTURE(rt_from);
+        CAPTURE(rt_to);
+        CAPTURE(rp_from);
+        CAPTURE(rp_to);
+        const cf::result<T> a = cf::reading(c, s, rt_to, rp_to);
+        CHECK(a.code == cf::status::ok);
+        CHECK(a.value == (s - zero[n0 - 1u]) * g * corr[n0 * n1 - 1u]);
+        const cf::result<T> b = cf::reading(c, s, rt_from, rp_to);
+        CHECK(b.code == cf::status::ok);
+        CHECK(b.value == (s - zero[0]) * g * corr[n1 - 1u]);
+        const cf::result<T> ra = cf::reading(c.ref(), s, rt_to, rp_to);
+        CHECK(ra.code == a.code);
+        CHECK(ra.value == a.value);
+    }
+}
+
+TEST_CASE_TEMPLATE("compensation: a degenerate or descending grid flags out_of_domain", T, float, double) {
+    const T corr[4] = {T(1), T(1), T(1), T(1)}, zero[2] = {T(0), T(0)};
+    const cf::compensation<T, 2, 2> flat =
+        cf::make_compensation<T, 2, 2>(T(300), T(300), T(70000), T(110000), corr, zero, T(1000));
+    const cf::compensation<T, 2, 2> down =
+        cf::make_compensation<T, 2, 2>(T(250), T(330), T(110000), T(70000), corr, zero, T(1000));
+    for (const T t : {T(250), T(300), T(320)}) {
+        CHECK(cf::has(cf::reading(flat, T(1e-6), t, T(90000)).code, cf::status::out_of_domain));
+        CHECK(cf::has(cf::reading(flat.ref(), T(1e-6), t, T(90000)).code, cf::status::out_of_domain));
+        CHECK(cf::has(cf::reading(down, T(1e-6), t, T(90000)).code, cf::status::out_of_domain));
+        CHECK(cf::has(cf::reading(down.ref(), T(1e-6), t, T(90000)).code, cf::status::out_of_domain));
+    }
+}
+
+TEST_CASE("compensation: the curved view is bounded by NH, not by the shape axis count") {
+    const double corr[4] = {1, 1, 1, 1}, zero[2] = {0, 0};
+    cf::curved_compensation<double, 2, 2, 3> cur{};
+    cur.linear = cf::make_compensation<double, 2, 2>(250, 330, 70000, 110000, corr, zero, 1000);
+    cur.curvature = cf::make_table_2d<double, 2, 2>(250, 330, 70000, 110000, {1, 1, 1, 1});
+    cur.shape = cf::make_table_1d<double, 3>(0, 1, {1, 0.8, 0.6});
+    cur.shape.axis.count = 50;  // a mismatched count must not widen the reads
+    CHECK(cur.ref().shape_axis.count == 3u);
+    const cf::result<double> r = cf::reading(cur, 1e-2, 300.0, 90000.0);  // gamma w = 10: far above the axis
+    CHECK(r.value == 10.0 * 0.6);
+    CHECK(cf::has(r.code, cf::status::above_range));
+}

@@ -249,11 +249,16 @@ TEST_CASE_TEMPLATE("table: the last node is reached from every axis length", T, 
         CHECK(r.value == v[n - 1]);
         CHECK(r.ok());
         CHECK(cf::locate(a, last, cf::status::below_range, cf::status::above_range).index == n - 2);
-        // One ulp either side of the last node: inside unflagged, outside flagged.
+        // One ulp either side of the last node: within the edge tolerance, so the last
+        // node unflagged; beyond the tolerance (8 eps (|from| + |to|)) flagged.
         const cf::result<T> in = cf::interpolate_1d(a, v.data(), std::nextafter(last, T(0)));
-        const cf::result<T> out = cf::interpolate_1d(a, v.data(), std::nextafter(last, T(1e30f)));
+        const cf::result<T> near = cf::interpolate_1d(a, v.data(), std::nextafter(last, T(1e30f)));
+        const T beyond = last + T(16) * std::numeric_limits<T>::epsilon() * (a.origin + last);
+        const cf::result<T> out = cf::interpolate_1d(a, v.data(), beyond);
         CHECK(in.ok());
         CHECK(std::fabs(in.value - v[n - 1]) <= T(4) * std::numeric_limits<T>::epsilon() * v[n - 1]);
+        CHECK(near.ok());
+        CHECK(near.value == v[n - 1]);
         CHECK(out.code == (cf::status::first_axis_above | cf::status::above_range));
         CHECK(out.value == v[n - 1]);
         // And at the first node: one ulp below is flagged, the node itself is not.
@@ -509,4 +514,117 @@ TEST_CASE("q15: integer axes agree with real axes and with exact interpolation")
     // Extreme integer inputs clamp without overflow.
     CHECK(cf::q15_interpolate_1d(i0, q.data(), std::numeric_limits<std::int32_t>::min()).value == q[0]);
     CHECK(cf::q15_interpolate_1d(i0, q.data(), std::numeric_limits<std::int32_t>::max()).value == q[n0 - 1]);
+}
+
+// ---------------------------------------------------------------------------
+// The requested last node is always reached (review fixes)
+
+namespace {
+
+// A random axis [from, to]: offsets like the tool's (K, Pa) and axes straddling zero.
+template <class T>
+void random_axis(std::mt19937& rng, int kind, T& from, T& to) {
+    std::uniform_real_distribution<double> u(0.0, 1.0);
+    if (kind == 0) {  // offset axis, e.g. 253.15 .. 323.15 K or 50 .. 130 kPa
+        const double base = std::pow(10.0, 1.0 + 4.0 * u(rng));
+        from = static_cast<T>(base * (0.5 + u(rng)));
+        to = static_cast<T>(static_cast<double>(from) + base * (0.01 + u(rng)));
+    } else {  // straddling zero, e.g. the shape axis -2 .. 0.1
+        from = static_cast<T>(-(0.01 + 10.0 * u(rng)));
+        to = static_cast<T>(0.001 + 10.0 * u(rng));
+    }
+}
+
+}  // namespace
+
+TEST_CASE_TEMPLATE("table: reading exactly at the requested to gives the last node, no flag, on random axes", T,
+                   float, double) {
+    std::mt19937 rng(20261201u);
+    std::uniform_int_distribution<int> count(2, 40);
+    for (int k = 0; k < 4000; ++k) {
+        T from{}, to{};
+        random_axis(rng, k % 2, from, to);
+        const std::size_t n = static_cast<std::size_t>(count(rng));
+        const cf::uniform_axis<T> ax = cf::make_uniform_axis(from, to, n);
+        std::vector<T> v(n);
+        for (std::size_t i = 0; i < n; ++i) v[i] = T(1) + static_cast<T>(i) * T(0.37);
+        const cf::result<T> r = cf::interpolate_1d(ax, v.data(), to);
+        CAPTURE(from);
+        CAPTURE(to);
+        CAPTURE(n);
+        CHECK(r.code == cf::status::ok);
+        CHECK(r.value == v[n - 1u]);
+        const cf::result<T> r0 = cf::interpolate_1d(ax, v.data(), from);
+        CHECK(r0.code == cf::status::ok);
+        CHECK(r0.value == v[0]);
+        // The compact axis, through the 2-D compact table (3 x 6, as the fixed compensation).
+        T vals[18];
+        for (std::size_t i = 0; i < 18; ++i) vals[i] = T(2) + static_cast<T>(i);
+        const cf::compact_table_2d<T, 3, 6> t = cf::make_compact_table_2d<T, 3, 6>(from, to, from, to, vals);
+        const cf::result<T> c = t(to, to);
+        CHECK(c.code == cf::status::ok);
+        CHECK(c.value == vals[17]);
+        const cf::result<T> c0 = t(from, to);
+        CHECK(c0.code == cf::status::ok);
+        CHECK(c0.value == vals[5]);
+        // Just beyond the tolerance: flagged above.
+        const T beyond = to + T(64) * std::numeric_limits<T>::epsilon() * (std::fabs(from) + std::fabs(to));
+        CHECK(cf::interpolate_1d(ax, v.data(), beyond).code ==
+              (cf::status::first_axis_above | cf::status::above_range));
+    }
+}
+
+TEST_CASE("table: an axis straddling zero reaches its requested last node") {
+    const cf::uniform_axis<float> ax = cf::make_uniform_axis(-2.f, 0.1f, 2);
+    const float v[2] = {3.f, 7.f};
+    const cf::result<float> r = cf::interpolate_1d(ax, v, 0.1f);
+    CHECK(r.code == cf::status::ok);
+    CHECK(r.value == 7.f);
+    const cf::table_1d<float, 2> t = cf::make_table_1d(-2.f, 0.1f, v);
+    CHECK(t(0.1f).code == cf::status::ok);
+    CHECK(t(0.1f).value == 7.f);
+}
+
+TEST_CASE_TEMPLATE("table: a degenerate or descending axis flags out_of_domain", T, float, double) {
+    const T v[3] = {T(1), T(2), T(3)};
+    for (const cf::uniform_axis<T>& ax : {cf::make_uniform_axis(T(5), T(5), 3), cf::make_uniform_axis(T(5), T(1), 3)}) {
+        for (const T x : {T(0), T(3), T(5), T(7)}) {
+            CAPTURE(x);
+            CHECK(cf::has(cf::interpolate_1d(ax, v, x).code, cf::status::out_of_domain));
+            CHECK(cf::has(cf::detail::locate_clamped(ax, x, cf::status::first_axis_below,
+                                                     cf::status::first_axis_above)
+                              .code,
+                          cf::status::out_of_domain));
+        }
+    }
+    const T vals[4] = {T(1), T(2), T(3), T(4)};
+    const cf::compact_table_2d<T, 2, 2> t = cf::make_compact_table_2d<T, 2, 2>(T(5), T(5), T(0), T(1), vals);
+    CHECK(cf::has(t(T(5), T(0.5)).code, cf::status::out_of_domain));
+}
+
+TEST_CASE("q15: an axis whose step times its cells overflows int32 is read without overflow") {
+    constexpr cf::q15_axis a = cf::make_q15_axis(-2000000000, 1000000000, 4);
+    static_assert(a.count == 4u, "the last node 1e9 fits int32");
+    constexpr std::int16_t q[4] = {100, 200, 300, 400};
+    constexpr cf::result<std::int16_t> last = cf::q15_interpolate_1d(a, q, 1000000000);
+    static_assert(last.value == 400 && last.code == cf::status::ok, "the last node exactly");
+    constexpr cf::result<std::int16_t> above = cf::q15_interpolate_1d(a, q, 2000000000);
+    static_assert(above.value == 400, "clamped to the last node");
+    CHECK(above.code == (cf::status::first_axis_above | cf::status::above_range));
+    CHECK(cf::q15_interpolate_1d(a, q, -1000000000).value == 200);  // nodes exactly (the fraction is coarse at this step)
+    CHECK(cf::q15_interpolate_1d(a, q, 0).value == 300);
+    // Too many nodes for int32: invalid, without overflow in the check.
+    static_assert(cf::make_q15_axis(0, 1000000000, 4).count == 0u, "last node 3e9 does not fit");
+    static_assert(cf::make_q15_axis(0, 2, std::size_t(0x80000000u)).count == 0u, "count above 2^31 - 1");
+}
+
+TEST_CASE("q15: fixed-size tables are bounded by their size, not by the axis count") {
+    const cf::q15_table_1d<3> t{cf::make_q15_axis(0, 100, 10), {{1, 2, 3}}};
+    CHECK(t(850).code == cf::status::out_of_domain);
+    CHECK(t(50).code == cf::status::out_of_domain);
+    const cf::q15_table_2d<2, 2> t2{cf::make_q15_axis(0, 100, 2), cf::make_q15_axis(0, 100, 9), {{1, 2, 3, 4}}};
+    CHECK(t2(50, 750).code == cf::status::out_of_domain);
+    const cf::q15_table_1d<3> ok = cf::make_q15_table_1d<3>(0, 100, {10, 20, 30});
+    CHECK(ok(200).value == 30);
+    CHECK(ok(200).code == cf::status::ok);
 }
