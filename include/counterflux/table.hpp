@@ -158,15 +158,16 @@ template <class T>
 }
 
 /// How far x may lie from the derived last node origin + cells * step and still
-/// count as AT it: 8 eps (|origin| + |last|). The derived last node carries the
-/// rounding of the step (or of 1 / inv_step) and of the sum, a few ulps of the
-/// larger end, so it can miss the requested `to` on either side; within this
-/// tolerance x reads the last node exactly and sets no flag. Each end is scaled
-/// apart, so the sum cannot overflow.
+/// count as AT it: 16 eps max(|origin|, |last|), which is at least
+/// 8 eps (|origin| + |last|). The derived last node carries the rounding of the
+/// step (or of 1 / inv_step) and of the sum, a few ulps of the larger end, so it
+/// can miss the requested `to` on either side; within this tolerance x reads the
+/// last node exactly and sets no flag. On an ascending axis (origin <= last, the
+/// only kind that reads) max(|origin|, |last|) = max(last, -origin): one select.
 template <class T>
 [[gnu::always_inline]] constexpr T edge_tolerance(T origin, T last) noexcept {
-    const T c = T(8) * std::numeric_limits<T>::epsilon();
-    return c * (origin < T(0) ? -origin : origin) + c * (last < T(0) ? -last : last);
+    const T larger = last > -origin ? last : -origin;
+    return T(16) * std::numeric_limits<T>::epsilon() * larger;
 }
 
 /// locate() for the inputs its fast path does not take: at or beyond an edge,
