@@ -17,7 +17,7 @@
 //     origin clamp to the first node, they never extrapolate from cell 0;
 //   - the last node is reachable: x at or beyond the last node gives index
 //     count - 2 with fraction exactly 1, so the value is exactly the last node's;
-//     "at" includes x within 8 eps (|origin| + |last|) of the derived last node
+//     "at" includes x within 16 eps max(|origin|, |last|) of the derived last node
 //     (which may miss the requested end by rounding), unflagged, so x = `to`
 //     always reads the last node; above_range only beyond that tolerance;
 //   - an axis that is not ascending (inv_step not > 0: from == to, to < from)
