@@ -396,7 +396,8 @@ namespace detail {
 template <class T>
 constexpr T step_from_inverse(T inv_step) noexcept {
     const T s = inv_step != T(0) ? T(1) / inv_step : T(0);
-    return finite(s) ? s : T(0);
+    // finite(s), in the two comparisons that suffice (NaN fails both, +-inf one)
+    return s >= -std::numeric_limits<T>::max() && s <= std::numeric_limits<T>::max() ? s : T(0);
 }
 
 }  // namespace detail
