@@ -8,6 +8,7 @@
 #include <array>
 #include <cstdio>
 #include <string>
+#include <utility>
 #include <vector>
 
 #include <sys/wait.h>
@@ -46,6 +47,22 @@ inline run_result run(const std::vector<std::string>& args) {
     while ((n = std::fread(buffer.data(), 1, buffer.size(), pipe)) > 0) out.append(buffer.data(), n);
     const int raw = ::pclose(pipe);
     return {WIFEXITED(raw) ? WEXITSTATUS(raw) : -1, out};
+}
+
+/// Runs the command with args, capturing standard error (standard output is
+/// discarded): the exit status and the messages.
+inline std::pair<int, std::string> run_stderr(const std::vector<std::string>& args) {
+    std::string line = shell_quote(command);
+    for (const auto& a : args) line += " " + shell_quote(a);
+    line += " 2>&1 >/dev/null";
+    FILE* pipe = ::popen(line.c_str(), "r");
+    REQUIRE(pipe != nullptr);
+    std::string err;
+    std::array<char, 4096> buffer{};
+    std::size_t n = 0;
+    while ((n = std::fread(buffer.data(), 1, buffer.size(), pipe)) > 0) err.append(buffer.data(), n);
+    const int raw = ::pclose(pipe);
+    return {WIFEXITED(raw) ? WEXITSTATUS(raw) : -1, err};
 }
 
 /// The JSON the command prints; the test stops unless it exits 0.

@@ -123,20 +123,7 @@ using counterflux_command_test::shell_quote;
 
 const std::string step_example = COUNTERFLUX_SOURCE_DIR "/examples/pumped_h2s_membrane.toml";
 
-// Exit status and standard error (standard output discarded).
-std::pair<int, std::string> run_stderr(const std::vector<std::string>& args) {
-    std::string line = shell_quote(counterflux_command_test::command);
-    for (const auto& a : args) line += " " + shell_quote(a);
-    line += " 2>&1 >/dev/null";
-    FILE* pipe = ::popen(line.c_str(), "r");
-    REQUIRE(pipe != nullptr);
-    std::string err;
-    char buffer[4096];
-    std::size_t n = 0;
-    while ((n = std::fread(buffer, 1, sizeof buffer, pipe)) > 0) err.append(buffer, n);
-    const int raw = ::pclose(pipe);
-    return {WIFEXITED(raw) ? WEXITSTATUS(raw) : -1, err};
-}
+using counterflux_command_test::run_stderr;
 
 std::vector<std::string> lines_of(const std::string& text) {
     std::vector<std::string> out;

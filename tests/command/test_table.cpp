@@ -173,24 +173,7 @@ TEST_CASE("table: bad input exits 2 and names what is wrong") {
     CHECK_FALSE(fs::exists(dir / "o"));
 }
 
-namespace {
-
-// Exit status and standard error of the command (standard output discarded).
-std::pair<int, std::string> run_stderr(const std::vector<std::string>& args) {
-    std::string line = counterflux_command_test::shell_quote(counterflux_command_test::command);
-    for (const auto& a : args) line += " " + counterflux_command_test::shell_quote(a);
-    line += " 2>&1 >/dev/null";
-    FILE* pipe = ::popen(line.c_str(), "r");
-    REQUIRE(pipe != nullptr);
-    std::string err;
-    char buffer[4096];
-    std::size_t n = 0;
-    while ((n = std::fread(buffer, 1, sizeof buffer, pipe)) > 0) err.append(buffer, n);
-    const int raw = ::pclose(pipe);
-    return {WIFEXITED(raw) ? WEXITSTATUS(raw) : -1, err};
-}
-
-}  // namespace
+using counterflux_command_test::run_stderr;
 
 TEST_CASE("table: error messages name the file, the place and what was expected") {
     const fs::path dir = fresh_dir("messages");
