@@ -29,7 +29,7 @@ using counterflux_command_test::shell_quote;
 
 namespace {
 
-const fs::path work = fs::current_path() / "work" / "inspect";
+const fs::path work = fs::temp_directory_path() / "counterflux-inspect-test";
 
 struct full_run {
     int status;
