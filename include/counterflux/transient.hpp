@@ -395,8 +395,9 @@ public:
     constexpr std::size_t nodes() const noexcept { return nodes_; }
 
     /// Simulates the rise and the fall over duration_s in steps equal steps,
-    /// calling observe(step_sample) after each (and once at t = 0); observe
-    /// must not throw. Status: the flags of setup;
+    /// calling observe(step_sample) after each (and once at t = 0); this function
+    /// is noexcept, so an exception escaping observe would end the program.
+    /// Status: the flags of setup;
     /// out_of_domain for a duration that is not finite and positive or steps
     /// outside 1..step_max_steps; above_range when a rise or fall time was not
     /// reached by the end (that time is then the duration); not_finite if the
